@@ -1,4 +1,7 @@
-/** Cell, plant, coating and cost sections of the example study (filled as those parts land). */
+/** Cell, plant, coating and cost sections of the example study. */
+import { exampleCell } from './example-cell.js';
+import { examplePlantSections } from './example-plant.js';
+
 export function buildExampleSections(): Record<string, unknown> {
-  return {};
+  return { ...exampleCell(), ...examplePlantSections() };
 }

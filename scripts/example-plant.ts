@@ -1,0 +1,4 @@
+/** The example study's plant, coatings and costs sections (filled by the plant page work). */
+export function examplePlantSections(): Record<string, unknown> {
+  return {};
+}
