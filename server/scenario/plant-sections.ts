@@ -1,6 +1,4 @@
 import { z } from 'zod';
 
-/** The study's plant sizing, coating comparison and cost-study inputs (same SI shapes as the plant APIs). */
+/** The study's plant sizing inputs (same SI shape as POST /api/v1/plant/size, plus shunt inputs). */
 export const plantSectionSchema = z.record(z.string(), z.unknown());
-export const coatingsSectionSchema = z.record(z.string(), z.unknown());
-export const costsSectionSchema = z.record(z.string(), z.unknown());

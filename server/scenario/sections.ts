@@ -3,7 +3,8 @@
  * costs). Each is the same SI shape as the matching API request body.
  */
 import { cellSectionSchema } from './cell-section.js';
-import { coatingsSectionSchema, costsSectionSchema, plantSectionSchema } from './plant-sections.js';
+import { plantSectionSchema } from './plant-sections.js';
+import { coatingsSectionSchema, costsSectionSchema } from './economics-sections.js';
 
 export const sectionSchemas = {
   cell: cellSectionSchema,

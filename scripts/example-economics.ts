@@ -1,0 +1,4 @@
+/** The example study's coating comparison and cost-study sections (filled by the coatings/costs work). */
+export function exampleEconomicsSections(): Record<string, unknown> {
+  return {};
+}
