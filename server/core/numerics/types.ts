@@ -9,8 +9,9 @@ export interface LinearFit {
   /** Covariance s²(XᵀX)⁻¹ (scaled by the residual variance unless sigma was given). */
   covariance: number[][];
   standardErrors: number[];
+  /** Raw residuals y − X·β (not multiplied by √w when weights are given). */
   residuals: number[];
-  /** Residual sum of squares. */
+  /** Residual sum of squares, Σ w_i·(y_i − x_iᵀβ)² (w_i = 1 without weights). */
   rss: number;
   /** s = sqrt(RSS/(n − p)). */
   residualStandardDeviation: number;
@@ -69,7 +70,8 @@ export type NonlinearStatus =
   | 'failed:max-evaluations'
   | 'failed:non-finite' // residuals became NaN/Infinity and could not be recovered
   | 'failed:singular' // Jacobian rank-deficient at the start, or at the end (parameters not identifiable)
-  | 'failed:not-stationary'; // the steps stalled at a point where the gradient is not small
+  | 'failed:not-stationary' // the steps stalled at a point where the cost still decreases
+  | 'failed:bad-jacobian'; // the analytic Jacobian disagrees with finite differences
 
 export interface NonlinearProblem {
   /** Residual vector r(p) (model − data or data − model; sign does not matter). */
@@ -81,9 +83,16 @@ export interface NonlinearProblem {
 }
 
 export interface NonlinearOptions {
+  /** Stop when actual and predicted relative reductions of the RSS are ≤ ftol (default 1e-12). */
   ftol?: number;
+  /** Stop when the trust-region radius is ≤ xtol·‖D·p‖ (relative step; default 1e-12). */
   xtol?: number;
+  /** Stop when the largest cosine between r and a column of J is ≤ gtol (default 1e-12). */
   gtol?: number;
+  /**
+   * Residual evaluations allowed, finite-difference ones included. Default
+   * 100·(p + 1)·(1 + evaluations per Jacobian): 0 analytic, 2p central, p forward.
+   */
   maxEvaluations?: number;
   /** Forward or central finite differences when no Jacobian is given (default central). */
   finiteDifference?: 'forward' | 'central';
@@ -92,13 +101,21 @@ export interface NonlinearOptions {
    * residuals already divided by known measurement σ.
    */
   sigmaMode?: SigmaMode;
+  /**
+   * Compare an analytic Jacobian with central differences at the solution (default true;
+   * costs 2p residual evaluations). A clear disagreement gives status 'failed:bad-jacobian'.
+   */
+  checkJacobian?: boolean;
   /** Initial trust-region radius as a multiple of ‖D·x₀‖ (MINPACK "factor", default 100). */
   initialStepBound?: number;
 }
 
 export interface NonlinearFit {
   parameters: number[];
-  /** s²(JᵀJ)⁻¹ at the solution, s² = RSS/(n − p). */
+  /**
+   * s²(JᵀJ)⁻¹ at the solution, s² = RSS/(n − p); (JᵀJ)⁻¹ when sigmaMode is 'absolute'
+   * (see covarianceScaling). Rows/columns of non-identifiable parameters are 0.
+   */
   covariance: number[][];
   standardErrors: number[];
   residuals: number[];
@@ -108,6 +125,7 @@ export interface NonlinearFit {
   converged: boolean;
   status: NonlinearStatus;
   message: string;
+  /** Accepted Levenberg–Marquardt steps. */
   iterations: number;
   /** Residual-function calls, including those made for finite-difference Jacobians. */
   evaluations: number;
