@@ -1,0 +1,78 @@
+/**
+ * Benchmarks of the electrode-kinetics core. Prints one JSON object per line:
+ *   {"case","msMedian","runs", ...extra}
+ * Cases:
+ *   bv-200-jlim   Butler–Volmer fit, 200 points on both branches, anodic limiting current fitted
+ *                 (target < 5 ms median on the 2-core project machine)
+ *   bv-200        the same data without the limiting-current parameter (its bend then misfits)
+ *   tafel-auto-60 Tafel fit with the automatic window, 60 points
+ *   tafel-auto-10000  automatic window on a 10 000-point record (bounded candidate search)
+ *   eta-inversion one η(j) solve from a cold start (butlerVolmerOverpotential incl. checks), µs
+ * Data: invented, generated from known parameters with seeded Gaussian noise.
+ * Run: npm run --silent bench:kinetics
+ */
+import { performance } from 'node:perf_hooks';
+import { fitButlerVolmer } from '../server/core/kinetics/butler-volmer.js';
+import { butlerVolmerOverpotential } from '../server/core/kinetics/models.js';
+import { fitTafel } from '../server/core/kinetics/tafel.js';
+import { bvPoints, logSpaced } from '../test/kinetics/synthetic.js';
+
+const T = 298.15;
+const MIN_TIME_MS = 1500;
+const MIN_RUNS = 20;
+const MAX_RUNS = 2000;
+
+function median(v: number[]): number {
+  const s = [...v].sort((a, b) => a - b);
+  const k = s.length >> 1;
+  return s.length % 2 ? s[k] : 0.5 * (s[k - 1] + s[k]);
+}
+const round = (v: number, d: number) => Math.round(v * 10 ** d) / 10 ** d;
+
+function time(name: string, fn: () => unknown, extra: Record<string, unknown> = {}, minMs = MIN_TIME_MS): void {
+  for (let k = 0; k < 10; k++) fn(); // warm-up (JIT)
+  const times: number[] = [];
+  const t0 = performance.now();
+  while (times.length < MIN_RUNS || performance.now() - t0 < minMs) {
+    const a = performance.now();
+    fn();
+    times.push(performance.now() - a);
+    if (times.length >= MAX_RUNS) break;
+  }
+  process.stdout.write(JSON.stringify({ case: name, msMedian: round(median(times), 3), runs: times.length, ...extra }) + '\n');
+}
+
+const bvTruth = { exchangeCurrentDensity: 0.5, anodicTransferCoefficient: 0.6, cathodicTransferCoefficient: 0.4, anodicLimitingCurrentDensity: 2000 };
+const linspace = (a: number, b: number, n: number) => Array.from({ length: n }, (_, k) => a + ((b - a) * k) / (n - 1));
+const bvData = bvPoints(linspace(-300, 1950, 200), bvTruth, T, { sigma: 0.002, seed: 3 });
+
+{
+  const r = fitButlerVolmer(bvData, { temperature: T, anodicLimitingCurrentDensity: 'fit' });
+  time('bv-200-jlim', () => fitButlerVolmer(bvData, { temperature: T, anodicLimitingCurrentDensity: 'fit' }), {
+    converged: r.converged,
+    evaluations: r.evaluations,
+    targetMs: 5,
+  });
+}
+{
+  const r = fitButlerVolmer(bvData, { temperature: T });
+  time('bv-200', () => fitButlerVolmer(bvData, { temperature: T }), { converged: r.converged, evaluations: r.evaluations });
+}
+{
+  const pts = bvPoints(logSpaced(-3, Math.log10(2700), 60), { ...bvTruth, exchangeCurrentDensity: 1e-2, anodicTransferCoefficient: 0.5, anodicLimitingCurrentDensity: 3000 }, T, { sigma: 0.001, seed: 5 });
+  time('tafel-auto-60', () => fitTafel(pts, { temperature: T }));
+}
+{
+  const pts = bvPoints(logSpaced(-3, Math.log10(2700), 10_000), { ...bvTruth, exchangeCurrentDensity: 1e-2, anodicTransferCoefficient: 0.5, anodicLimitingCurrentDensity: 3000 }, T, { sigma: 0.001, seed: 6 });
+  time('tafel-auto-10000', () => fitTafel(pts, { temperature: T }), {}, 3000);
+}
+{
+  const p = { exchangeCurrentDensity: 1e-3, anodicTransferCoefficient: 0.5, cathodicTransferCoefficient: 0.5, anodicLimitingCurrentDensity: 1e4 };
+  const js = logSpaced(-6, 3.9, 1000);
+  const r = { ms: 0 };
+  time('eta-inversion-x1000', () => {
+    let s = 0;
+    for (const j of js) s += butlerVolmerOverpotential(j, p, T);
+    r.ms = s;
+  }, { note: 'msMedian per 1000 cold solves = µs per solve' });
+}

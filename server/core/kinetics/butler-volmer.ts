@@ -1,0 +1,859 @@
+/**
+ * Butler–Volmer fit with residuals in the measured variable η.
+ *
+ * Model (domain.md §3): for each point the model overpotential is
+ *   η_model(j) = η_BV(j; j0, α_a, α_c, j_lim,a, j_lim,c) + j·R_u,
+ * where η_BV is the exact inverse of the closed-form Butler–Volmer law with limiting
+ * currents (models.ts / bv-kernel.ts). Least squares on r_i = η_i − η_model(j_i) by
+ * Levenberg–Marquardt (numerics), with an analytic Jacobian from the implicit-function
+ * theorem: ∂η/∂θ = −(∂ln|j|/∂θ)/(∂ln|j|/∂η) at fixed j.
+ *
+ * Parametrisation (positive quantities through logarithms, so the fit cannot leave the
+ * physical domain):
+ *   θ_0 = ln j0;  α_a = e^{θ}, α_c = e^{θ} (each when free);
+ *   tied α_a + α_c = n: α_a = n/(1 + e^{−z}), α_c = n − α_a;
+ *   limiting current of a branch: j_lim = j_max·(1 + e^{φ}), j_max = the largest |j| of the
+ *     fitted points on that branch — the law has no solution for |j| ≥ j_lim, so the
+ *     likelihood only exists above j_max; φ is the log of the relative excess;
+ *   R_u unconstrained (a negative fitted value earns a warning).
+ * Reported values map the parameter estimates back; standard errors by the delta method;
+ * 95 % intervals are the intervals on θ (± t·SE, t = t_{0.975, n−p}) mapped through the
+ * monotone transformations (asymmetric for j0, α and limiting currents).
+ * Covariance: s²(JᵀJ)⁻¹ with s² = RSS/(n − p) (σ estimated from the scatter).
+ * Sources: Butler–Volmer with limiting currents as in domain.md §3; Levenberg–Marquardt
+ * (Moré 1978) via numerics; delta method and interval mapping (common practice).
+ */
+import { faradayOverRT, thermalVoltage } from '../constants.js';
+import { InputError, PhysicsError } from '../errors.js';
+import { correlationMatrix, levenbergMarquardt, linearLeastSquares } from '../numerics/index.js';
+import type { NonlinearFit } from '../numerics/index.js';
+import { lnRatioToLimit, makeKernels, newBranchEval, solveBranch } from './bv-kernel.js';
+import type { BranchEval, BranchKernel } from './bv-kernel.js';
+import { fitStatistics, fixedParameter, symmetricParameter, tQuantile95 } from './statistics.js';
+import type { Branch, FitStatistics, FittedParameter, PolarizationPoint, ResidualRecord } from './types.js';
+import { checkPoints, checkTemperature, checkWindow } from './validate.js';
+import { lowFieldLimit } from './window.js';
+
+export interface ButlerVolmerFitOptions {
+  /** Temperature [K] (> 0). */
+  temperature: number;
+  /** Electron number n: needed to tie α_a + α_c = n; also gives the single-step reading. */
+  electrons?: number;
+  /** Manual |η| window in V (as given), or 'auto' / absent = all points. */
+  window?: { minOverpotential: number; maxOverpotential: number } | 'auto';
+  /** Restrict the fit to one branch (default: all points, both branches). */
+  branch?: Branch;
+  /** Known R_u [Ω·m²] or 'fit'. Default 0. */
+  uncompensatedResistance?: number | 'fit';
+  /** Known anodic limiting current density [A/m²] or 'fit'. Default: none. */
+  anodicLimitingCurrentDensity?: number | 'fit';
+  /** Known cathodic limiting current density magnitude [A/m²] or 'fit'. Default: none. */
+  cathodicLimitingCurrentDensity?: number | 'fit';
+  /** Fix α_a at this value. */
+  anodicTransferCoefficient?: number;
+  /** Fix α_c at this value. */
+  cathodicTransferCoefficient?: number;
+  /** Tie α_a + α_c = electrons. */
+  tieTransferCoefficients?: boolean;
+}
+
+export interface ButlerVolmerParameters {
+  exchangeCurrentDensity: FittedParameter;
+  anodicTransferCoefficient: FittedParameter;
+  cathodicTransferCoefficient: FittedParameter;
+  /** Tafel slope per decade of the main branch (the one with more fitted points) [V/decade]. */
+  tafelSlope: FittedParameter;
+  anodicTafelSlope: FittedParameter;
+  cathodicTafelSlope: FittedParameter;
+  uncompensatedResistance?: FittedParameter;
+  anodicLimitingCurrentDensity?: FittedParameter;
+  cathodicLimitingCurrentDensity?: FittedParameter;
+  singleStepSymmetryReading?: FittedParameter;
+}
+
+export interface ButlerVolmerFitResult {
+  model: 'butler-volmer';
+  parameters: ButlerVolmerParameters;
+  statistics: FitStatistics;
+  window: { minOverpotential: number; maxOverpotential: number; rule: string; automatic: boolean };
+  correlation: { names: string[]; matrix: number[][] };
+  residuals: ResidualRecord[];
+  curve: PolarizationPoint[];
+  converged: boolean;
+  status: string;
+  message: string;
+  iterations: number;
+  evaluations: number;
+  warnings: string[];
+}
+
+/** Relative SE of a positive parameter (SE of its log) above which it is "not determined" (100 %; project choice). */
+const MAX_RELATIVE_SE = 1;
+/** |correlation| above which two parameters are reported as not separable (brief: 0.99). */
+const MAX_CORRELATION = 0.99;
+/** Fitted limiting current beyond this multiple of the largest measured |j| → "no sign of a limit" (project choice). */
+const LIMIT_RUNAWAY_FACTOR = 100;
+/** Transfer coefficients outside this range are flagged as implausible (project choice; IUPAC values are O(0.1–4)). */
+const ALPHA_PLAUSIBLE: [number, number] = [0.05, 5];
+/** Lowest allowed φ (keeps j_lim − j_max > 0 in floating point). */
+const PHI_MIN = -700;
+/** Highest φ used by the model (j_lim ≤ e^40·j_max): beyond it the limit has no effect on the data. */
+const PHI_MAX = 40;
+/** φ above which a fitted limiting current counts as having run away (j_lim > 100·j_max). */
+const PHI_RUNAWAY = Math.log(LIMIT_RUNAWAY_FACTOR - 1);
+/** Clamp of starting transfer coefficients (project choice). */
+const ALPHA_START_RANGE: [number, number] = [0.1, 3];
+const CURVE_POINTS_PER_BRANCH = 50;
+
+type Dep = { index: number; d: number }[];
+
+interface Layout {
+  names: string[];
+  start: number[];
+  /** Map θ → physical quantities with gradients. */
+  unpack(theta: number[]): Unpacked;
+}
+
+interface Unpacked {
+  lnJ0: number;
+  lnJ0Dep: Dep;
+  alphaA: number;
+  alphaADep: Dep;
+  alphaC: number;
+  alphaCDep: Dep;
+  lnLimA: number; // Infinity when none
+  limADep: Dep;
+  limAExcess: number; // j_lim,a − j_max,a (for the gap), NaN when fixed/none
+  lnLimC: number;
+  limCDep: Dep;
+  limCExcess: number;
+  limA: number; // value or Infinity
+  limC: number;
+  ru: number;
+  ruDep: Dep;
+}
+
+const softplus = (p: number) => (p > 35 ? p : Math.log1p(Math.exp(p)));
+const sigmoid = (p: number) => 1 / (1 + Math.exp(-p));
+
+/**
+ * Fit the Butler–Volmer law (with optional limiting currents and R_u) to polarization
+ * points (j [A/m²], η [V]). See the file header for model, parametrisation and statistics.
+ * Throws InputError for invalid options or too few points, PhysicsError when data exceed a
+ * fixed limiting current.
+ */
+export function fitButlerVolmer(points: PolarizationPoint[], options: ButlerVolmerFitOptions): ButlerVolmerFitResult {
+  checkPoints(points, { rejectZeroCurrent: false });
+  checkTemperature(options.temperature);
+  const T = options.temperature;
+  const f = faradayOverRT(T);
+  const warnings: string[] = [];
+
+  // ---- Which points.
+  const win = options.window ?? 'auto';
+  const automatic = win === 'auto';
+  const bounds = automatic ? { minOverpotential: 0, maxOverpotential: Infinity } : checkWindow(win);
+  if (options.branch !== undefined && options.branch !== 'anodic' && options.branch !== 'cathodic') {
+    throw new InputError('branch', "must be 'anodic' or 'cathodic'", options.branch);
+  }
+  const used: number[] = [];
+  for (let i = 0; i < points.length; i++) {
+    const pt = points[i];
+    if (options.branch === 'anodic' && !(pt.currentDensity > 0)) continue;
+    if (options.branch === 'cathodic' && !(pt.currentDensity < 0)) continue;
+    const m = Math.abs(pt.overpotential);
+    if (m < bounds.minOverpotential || m > bounds.maxOverpotential) continue;
+    used.push(i);
+  }
+  if (used.length === 0) throw new InputError('window', 'no point lies in the chosen window/branch (empty window)');
+  const J = used.map((i) => points[i].currentDensity);
+  const H = used.map((i) => points[i].overpotential);
+  const n = J.length;
+  let jMaxA = 0;
+  let jMaxC = 0;
+  let nA = 0;
+  let nC = 0;
+  for (const j of J) {
+    if (j > 0) {
+      nA++;
+      jMaxA = Math.max(jMaxA, j);
+    } else if (j < 0) {
+      nC++;
+      jMaxC = Math.max(jMaxC, -j);
+    }
+  }
+  if (nA + nC === 0) throw new InputError('points', 'all fitted points have zero current; the kinetics cannot be fitted');
+
+  // ---- Options → layout.
+  const electrons = options.electrons;
+  if (electrons !== undefined && (typeof electrons !== 'number' || !Number.isFinite(electrons) || electrons <= 0)) {
+    throw new InputError('electrons', 'must be a number of electrons > 0', electrons);
+  }
+  const fixedAa = checkAlpha(options.anodicTransferCoefficient, 'anodicTransferCoefficient');
+  const fixedAc = checkAlpha(options.cathodicTransferCoefficient, 'cathodicTransferCoefficient');
+  const tie = options.tieTransferCoefficients === true;
+  if (tie && electrons === undefined) throw new InputError('electrons', 'is needed to tie α_a + α_c = n');
+  if (tie && fixedAa !== undefined && fixedAc !== undefined && Math.abs(fixedAa + fixedAc - (electrons as number)) > 1e-12 * (electrons as number)) {
+    throw new InputError('tieTransferCoefficients', `α_a + α_c = ${fixedAa + fixedAc} differs from n = ${electrons}`);
+  }
+  if (tie && fixedAa !== undefined && !(fixedAa < (electrons as number))) throw new InputError('anodicTransferCoefficient', `must be below n = ${electrons} when tied`, fixedAa);
+  if (tie && fixedAc !== undefined && !(fixedAc < (electrons as number))) throw new InputError('cathodicTransferCoefficient', `must be below n = ${electrons} when tied`, fixedAc);
+  const limA = checkLimit(options.anodicLimitingCurrentDensity, 'anodicLimitingCurrentDensity');
+  const limC = checkLimit(options.cathodicLimitingCurrentDensity, 'cathodicLimitingCurrentDensity');
+  if (limA === 'fit' && nA === 0) throw new InputError('anodicLimitingCurrentDensity', "cannot be fitted without anodic points (j > 0); give a value or leave it out");
+  if (limC === 'fit' && nC === 0) throw new InputError('cathodicLimitingCurrentDensity', "cannot be fitted without cathodic points (j < 0); give a value or leave it out");
+  for (let k = 0; k < n; k++) {
+    const j = J[k];
+    if (typeof limA === 'number' && j >= limA) {
+      throw new PhysicsError(`points[${used[k]}].currentDensity`, `j = ${j} A/m² is at or above the given anodic limiting current density ${limA} A/m²`);
+    }
+    if (typeof limC === 'number' && -j >= limC) {
+      throw new PhysicsError(`points[${used[k]}].currentDensity`, `|j| = ${-j} A/m² is at or above the given cathodic limiting current density ${limC} A/m²`);
+    }
+  }
+  const ruOpt = options.uncompensatedResistance ?? 0;
+  if (ruOpt !== 'fit' && (typeof ruOpt !== 'number' || !Number.isFinite(ruOpt) || ruOpt < 0)) {
+    throw new InputError('uncompensatedResistance', "must be a known area resistance ≥ 0 Ω·m² or 'fit'", ruOpt);
+  }
+
+  // ---- Starting values from quick Tafel lines on each branch.
+  const st = startingValues(J, H, T, typeof ruOpt === 'number' ? ruOpt : 0);
+  const alphaA0 = fixedAa ?? st.alphaA;
+  const alphaC0 = fixedAc ?? st.alphaC;
+
+  const names: string[] = ['ln j0'];
+  const start: number[] = [st.lnJ0];
+  let alphaMode: 'free' | 'tied' | 'tied-fixed';
+  let iAa = -1;
+  let iAc = -1;
+  let iZ = -1;
+  if (tie) {
+    if (fixedAa !== undefined || fixedAc !== undefined) alphaMode = 'tied-fixed';
+    else {
+      alphaMode = 'tied';
+      const share = Math.min(0.95, Math.max(0.05, alphaA0 / (alphaA0 + alphaC0)));
+      iZ = start.length;
+      names.push('logit(α_a/n)');
+      start.push(Math.log(share / (1 - share)));
+    }
+  } else {
+    alphaMode = 'free';
+    if (fixedAa === undefined) {
+      iAa = start.length;
+      names.push('ln α_a');
+      start.push(Math.log(alphaA0));
+    }
+    if (fixedAc === undefined) {
+      iAc = start.length;
+      names.push('ln α_c');
+      start.push(Math.log(alphaC0));
+    }
+  }
+  let iLa = -1;
+  let iLc = -1;
+  if (limA === 'fit') {
+    iLa = start.length;
+    names.push('ln(j_lim,a/j_max,a − 1)');
+    start.push(st.phiA(jMaxA));
+  }
+  if (limC === 'fit') {
+    iLc = start.length;
+    names.push('ln(j_lim,c/j_max,c − 1)');
+    start.push(st.phiC(jMaxC));
+  }
+  let iRu = -1;
+  if (ruOpt === 'fit') {
+    iRu = start.length;
+    names.push('R_u');
+    start.push(0);
+  }
+  const nFree = start.length;
+  if (n <= nFree) {
+    throw new InputError('points', `${n} point(s) in the fit but ${nFree} free parameter(s); at least ${nFree + 1} are needed for a fit with uncertainties`);
+  }
+
+  const lnJMaxA = nA > 0 ? Math.log(jMaxA) : 0;
+  const lnJMaxC = nC > 0 ? Math.log(jMaxC) : 0;
+  const layout: Layout = {
+    names,
+    start,
+    unpack(theta) {
+      const u: Unpacked = {
+        lnJ0: theta[0],
+        lnJ0Dep: [{ index: 0, d: 1 }],
+        alphaA: 0,
+        alphaADep: [],
+        alphaC: 0,
+        alphaCDep: [],
+        lnLimA: Infinity,
+        limADep: [],
+        limAExcess: NaN,
+        lnLimC: Infinity,
+        limCDep: [],
+        limCExcess: NaN,
+        limA: Infinity,
+        limC: Infinity,
+        ru: typeof ruOpt === 'number' ? ruOpt : 0,
+        ruDep: [],
+      };
+      if (alphaMode === 'free') {
+        if (iAa >= 0) {
+          u.alphaA = Math.exp(theta[iAa]);
+          u.alphaADep = [{ index: iAa, d: u.alphaA }];
+        } else u.alphaA = fixedAa as number;
+        if (iAc >= 0) {
+          u.alphaC = Math.exp(theta[iAc]);
+          u.alphaCDep = [{ index: iAc, d: u.alphaC }];
+        } else u.alphaC = fixedAc as number;
+      } else if (alphaMode === 'tied') {
+        const nEl = electrons as number;
+        const sg = sigmoid(theta[iZ]);
+        u.alphaA = nEl * sg;
+        u.alphaC = nEl * (1 - sg);
+        const d = nEl * sg * (1 - sg);
+        u.alphaADep = [{ index: iZ, d }];
+        u.alphaCDep = [{ index: iZ, d: -d }];
+      } else {
+        const nEl = electrons as number;
+        u.alphaA = fixedAa ?? nEl - (fixedAc as number);
+        u.alphaC = fixedAc ?? nEl - (fixedAa as number);
+      }
+      if (iLa >= 0) {
+        const phi = Math.min(PHI_MAX, Math.max(theta[iLa], PHI_MIN));
+        u.lnLimA = lnJMaxA + softplus(phi);
+        u.limADep = [{ index: iLa, d: phi === theta[iLa] ? sigmoid(phi) : 0 }];
+        u.limAExcess = jMaxA * Math.exp(phi);
+        u.limA = jMaxA + u.limAExcess;
+      } else if (typeof limA === 'number') {
+        u.lnLimA = Math.log(limA);
+        u.limA = limA;
+      }
+      if (iLc >= 0) {
+        const phi = Math.min(PHI_MAX, Math.max(theta[iLc], PHI_MIN));
+        u.lnLimC = lnJMaxC + softplus(phi);
+        u.limCDep = [{ index: iLc, d: phi === theta[iLc] ? sigmoid(phi) : 0 }];
+        u.limCExcess = jMaxC * Math.exp(phi);
+        u.limC = jMaxC + u.limCExcess;
+      } else if (typeof limC === 'number') {
+        u.lnLimC = Math.log(limC);
+        u.limC = limC;
+      }
+      if (iRu >= 0) {
+        u.ru = theta[iRu];
+        u.ruDep = [{ index: iRu, d: 1 }];
+      }
+      return u;
+    },
+  };
+
+  const model = new BvResidualModel(J, H, f, layout, jMaxA, jMaxC);
+  const runFit = (s0: number[]): NonlinearFit =>
+    levenbergMarquardt({ residuals: (th) => model.residuals(th), jacobian: (th) => model.jacobian(th), start: s0 });
+  let fit = runFit(start);
+  if (!fit.converged) {
+    // Second start: symmetric α = 0.5 and a limiting current at twice the largest |j|.
+    const alt = start.slice();
+    if (iAa >= 0) alt[iAa] = Math.log(0.5);
+    if (iAc >= 0) alt[iAc] = Math.log(0.5);
+    if (iZ >= 0) alt[iZ] = 0;
+    if (iLa >= 0) alt[iLa] = 0;
+    if (iLc >= 0) alt[iLc] = 0;
+    model.resetWarmStart();
+    const fit2 = runFit(alt);
+    if (fit2.converged || fit2.rss < fit.rss) fit = fit2;
+  }
+  for (const w of fit.warnings) warnings.push(`Fit engine: ${w}`);
+  const theta = fit.parameters;
+  // A fitted limiting current that ran far beyond the data is not identifiable (no bending):
+  // refit without it and say so, rather than report an arbitrary huge value.
+  const runawayA = iLa >= 0 && theta[iLa] > PHI_RUNAWAY;
+  const runawayC = iLc >= 0 && theta[iLc] > PHI_RUNAWAY;
+  if (runawayA || runawayC) {
+    const again = fitButlerVolmer(points, {
+      ...options,
+      anodicLimitingCurrentDensity: runawayA ? undefined : options.anodicLimitingCurrentDensity,
+      cathodicLimitingCurrentDensity: runawayC ? undefined : options.cathodicLimitingCurrentDensity,
+    });
+    const which = [runawayA ? 'anodic' : '', runawayC ? 'cathodic' : ''].filter(Boolean).join(' and ');
+    again.warnings.unshift(
+      `The ${which} limiting current could not be fitted: the estimate ran beyond ${LIMIT_RUNAWAY_FACTOR}× the largest measured current, i.e. the data show no mass-transport bending. It was left out; the result is the fit without it (the limit, if any, lies well above the measured range).`,
+    );
+    return again;
+  }
+  const u = layout.unpack(theta);
+  const dof = fit.degreesOfFreedom;
+  // Standard errors only from a converged fit with a finite covariance; an SE of exactly 0 for
+  // a free parameter with scatter present means the covariance was not available.
+  const se = fit.standardErrors.map((v, k) => (!fit.converged || fit.aliased[k] || (v === 0 && fit.rss > 0) ? null : v));
+  const t = tQuantile95(dof);
+
+  // ---- Parameters.
+  const seOf = (k: number) => (k >= 0 ? se[k] : null);
+  const params = {} as ButlerVolmerParameters;
+  params.exchangeCurrentDensity = mappedParameter(theta[0], seOf(0), t, Math.exp, Math.exp(theta[0]), 'A/m²', 'interval from the interval on ln j0 (asymmetric)');
+  let aa: FittedParameter;
+  let ac: FittedParameter;
+  if (alphaMode === 'free') {
+    aa = iAa >= 0 ? mappedParameter(theta[iAa], seOf(iAa), t, Math.exp, Math.exp(theta[iAa]), '1') : fixedParameter(u.alphaA, '1');
+    ac = iAc >= 0 ? mappedParameter(theta[iAc], seOf(iAc), t, Math.exp, Math.exp(theta[iAc]), '1') : fixedParameter(u.alphaC, '1');
+  } else if (alphaMode === 'tied') {
+    const nEl = electrons as number;
+    const sg = sigmoid(theta[iZ]);
+    const dA = nEl * sg * (1 - sg);
+    aa = mappedParameter(theta[iZ], seOf(iZ), t, (z) => nEl * sigmoid(z), dA, '1', `tied: α_a + α_c = ${nEl}`);
+    ac = mappedParameter(theta[iZ], seOf(iZ), t, (z) => nEl * (1 - sigmoid(z)), -dA, '1', `tied: α_a + α_c = ${nEl}`);
+  } else {
+    aa = fixedParameter(u.alphaA, '1', fixedAa !== undefined ? undefined : `from the tie α_a = n − α_c (n = ${electrons})`);
+    ac = fixedParameter(u.alphaC, '1', fixedAc !== undefined ? undefined : `from the tie α_c = n − α_a (n = ${electrons})`);
+  }
+  aa.note = aa.note ?? 'anodic transfer coefficient (IUPAC 2014: the reported quantity)';
+  ac.note = ac.note ?? 'cathodic transfer coefficient (IUPAC 2014: the reported quantity)';
+  params.anodicTransferCoefficient = aa;
+  params.cathodicTransferCoefficient = ac;
+  params.anodicTafelSlope = slopeFromAlpha(aa, f);
+  params.cathodicTafelSlope = slopeFromAlpha(ac, f);
+  const mainBranch: Branch = options.branch ?? (nC > nA ? 'cathodic' : 'anodic');
+  params.tafelSlope = { ...(mainBranch === 'anodic' ? params.anodicTafelSlope : params.cathodicTafelSlope) };
+  params.tafelSlope.note = options.branch ? `${mainBranch} branch (as requested)` : `${mainBranch} branch (the one with more fitted points)`;
+  if (iLa >= 0) {
+    params.anodicLimitingCurrentDensity = mappedParameter(theta[iLa], seOf(iLa), t, (p) => jMaxA * (1 + Math.exp(p)), jMaxA * Math.exp(theta[iLa]), 'A/m²', 'j_lim = j_max·(1 + e^φ); interval mapped from φ (asymmetric)');
+  } else if (typeof limA === 'number') params.anodicLimitingCurrentDensity = fixedParameter(limA, 'A/m²');
+  if (iLc >= 0) {
+    params.cathodicLimitingCurrentDensity = mappedParameter(theta[iLc], seOf(iLc), t, (p) => jMaxC * (1 + Math.exp(p)), jMaxC * Math.exp(theta[iLc]), 'A/m²', 'magnitude; j_lim = j_max·(1 + e^φ); interval mapped from φ (asymmetric)');
+  } else if (typeof limC === 'number') params.cathodicLimitingCurrentDensity = fixedParameter(limC, 'A/m²', 'magnitude; fixed by the user, not fitted');
+  if (iRu >= 0) params.uncompensatedResistance = symmetricParameter(theta[iRu], seOf(iRu), dof, 'Ω·m²');
+  else if (typeof ruOpt === 'number' && ruOpt > 0) params.uncompensatedResistance = fixedParameter(ruOpt, 'Ω·m²', 'known value, included as j·R_u');
+  if (electrons !== undefined) {
+    const src = mainBranch === 'anodic' ? aa : ac;
+    const reading: FittedParameter = {
+      value: src.value / electrons,
+      standardError: src.standardError === null ? null : src.standardError / electrons,
+      ci95: src.ci95 ? [src.ci95[0] / electrons, src.ci95[1] / electrons] : null,
+      unit: '1',
+      note:
+        mainBranch === 'anodic'
+          ? `single-step reading (1 − β) = α_a/n with n = ${electrons}; meaningful only for one elementary step (IUPAC 2014: α is the reported quantity)`
+          : `single-step reading β = α_c/n with n = ${electrons}; meaningful only for one elementary step (IUPAC 2014: α is the reported quantity)`,
+    };
+    if (src.fixed) reading.fixed = true;
+    params.singleStepSymmetryReading = reading;
+  }
+
+  // ---- Residual records, statistics, curve.
+  const fittedEta = model.modelEta(theta);
+  const usedSet = new Map<number, number>();
+  used.forEach((i, k) => usedSet.set(i, k));
+  const residuals: ResidualRecord[] = points.map((pt, i) => {
+    const k = usedSet.get(i);
+    let fitted: number | null = k !== undefined ? fittedEta[k] : model.etaAt(pt.currentDensity, u);
+    if (fitted !== null && !Number.isFinite(fitted)) fitted = null;
+    return {
+      currentDensity: pt.currentDensity,
+      overpotential: pt.overpotential,
+      fitted,
+      residual: fitted === null ? null : pt.overpotential - fitted,
+      used: k !== undefined,
+    };
+  });
+  const resUsed = used.map((_, k) => H[k] - fittedEta[k]);
+  const statistics = fitStatistics(resUsed, H, nFree);
+  const curve = model.curve(u, nA > 0 ? jMaxA : 0, nC > 0 ? jMaxC : 0, minAbs(J));
+
+  // ---- Identifiability and plausibility warnings.
+  const corr = safeCorrelation(fit);
+  const label = (k: number) => names[k];
+  fit.aliased.forEach((a, k) => {
+    if (a) warnings.push(`${label(k)} cannot be determined from these data (the fit is rank-deficient in it); its value is arbitrary.`);
+  });
+  const logLike = new Set([0, iAa, iAc, iLa, iLc].filter((k) => k >= 0));
+  for (const k of logLike) {
+    const s = se[k];
+    if (s !== null && s > MAX_RELATIVE_SE) {
+      warnings.push(`${label(k).replace(/^ln /, '')} is poorly determined: its relative standard error exceeds ${MAX_RELATIVE_SE * 100} % (the interval spans more than a factor e^(2t·SE)).`);
+    }
+  }
+  for (let a = 0; a < nFree; a++) {
+    for (let b = a + 1; b < nFree; b++) {
+      if (Math.abs(corr[a][b]) > MAX_CORRELATION) {
+        warnings.push(`${label(a)} and ${label(b)} are almost fully correlated (r = ${corr[a][b].toFixed(3)}): these data cannot separate them; fix one of them or extend the data.`);
+      }
+    }
+  }
+  for (const [nm, v, free] of [
+    ['α_a', u.alphaA, iAa >= 0 || iZ >= 0],
+    ['α_c', u.alphaC, iAc >= 0 || iZ >= 0],
+  ] as const) {
+    if (free && (v < ALPHA_PLAUSIBLE[0] || v > ALPHA_PLAUSIBLE[1])) {
+      warnings.push(`The fitted ${nm} = ${v.toPrecision(3)} lies outside the plausible range ${ALPHA_PLAUSIBLE[0]}–${ALPHA_PLAUSIBLE[1]}; the fit probably ran to a bound.`);
+    }
+  }
+  if (iRu >= 0 && theta[iRu] < 0) {
+    warnings.push('The fitted uncompensated resistance is negative, which is unphysical; fix R_u from impedance or current-interrupt data instead.');
+  }
+  const twoRT = 2 * thermalVoltage(T);
+  const nearZero = H.filter((h) => Math.abs(h) < twoRT).length;
+  if (nC === 0 && iAc >= 0) {
+    warnings.push(`All fitted points are anodic: α_c rests only on the ${nearZero} point(s) with |η| < ${(twoRT * 1000).toFixed(0)} mV, where the reverse reaction matters; expect it to be poorly determined (fix it, or tie α_a + α_c = n).`);
+  }
+  if (nA === 0 && iAa >= 0) {
+    warnings.push(`All fitted points are cathodic: α_a rests only on the ${nearZero} point(s) with |η| < ${(twoRT * 1000).toFixed(0)} mV, where the reverse reaction matters; expect it to be poorly determined (fix it, or tie α_a + α_c = n).`);
+  }
+  if (!fit.converged) warnings.push(`The fit did not converge (${fit.status}): ${fit.message} The parameters shown are the last iterate and must not be used.`);
+
+  let etaMin = Infinity;
+  let etaMax = -Infinity;
+  for (const h of H) {
+    etaMin = Math.min(etaMin, Math.abs(h));
+    etaMax = Math.max(etaMax, Math.abs(h));
+  }
+  return {
+    model: 'butler-volmer',
+    parameters: params,
+    statistics,
+    window: {
+      minOverpotential: etaMin,
+      maxOverpotential: etaMax,
+      rule: automatic
+        ? `All points${options.branch ? ` of the ${options.branch} branch` : ''}: the Butler–Volmer law holds at every overpotential, so no window is needed.`
+        : `Manual window: points with |η| (as given) between the stated bounds${options.branch ? ` on the ${options.branch} branch` : ''}.`,
+      automatic,
+    },
+    correlation: { names, matrix: corr },
+    residuals,
+    curve,
+    converged: fit.converged,
+    status: fit.status,
+    message: fit.message,
+    iterations: fit.iterations,
+    evaluations: fit.evaluations,
+    warnings,
+  };
+}
+
+function checkAlpha(v: unknown, path: string): number | undefined {
+  if (v === undefined) return undefined;
+  if (typeof v !== 'number' || !Number.isFinite(v) || v <= 0) throw new InputError(path, 'must be a transfer coefficient > 0', v);
+  return v;
+}
+
+function checkLimit(v: unknown, path: string): number | 'fit' | undefined {
+  if (v === undefined || v === 'fit') return v;
+  if (typeof v !== 'number' || !Number.isFinite(v) || v <= 0) throw new InputError(path, "must be a limiting current density magnitude > 0 A/m² or 'fit'", v);
+  return v;
+}
+
+function minAbs(J: number[]): number {
+  let m = Infinity;
+  for (const j of J) if (j !== 0) m = Math.min(m, Math.abs(j));
+  return m;
+}
+
+/**
+ * Parameter q = g(θ) for a monotone g: value g(θ̂), SE |g'(θ̂)|·SE(θ) (delta method), interval
+ * the image of θ̂ ± t·SE (ordered). `gPrime` is g'(θ̂).
+ */
+function mappedParameter(
+  thetaHat: number,
+  seTheta: number | null,
+  t: number,
+  g: (th: number) => number,
+  gPrime: number,
+  unit: string,
+  note?: string,
+): FittedParameter {
+  const value = g(thetaHat);
+  const out: FittedParameter = { value, standardError: null, ci95: null, unit };
+  if (note) out.note = note;
+  if (seTheta !== null && Number.isFinite(seTheta)) {
+    const seV = Math.abs(gPrime) * seTheta;
+    out.standardError = Number.isFinite(seV) ? seV : null;
+    const lo = g(thetaHat - t * seTheta);
+    const hi = g(thetaHat + t * seTheta);
+    const a = Math.min(lo, hi);
+    const b = Math.max(lo, hi);
+    out.ci95 = Number.isFinite(a) && Number.isFinite(b) ? [a, b] : null;
+  }
+  return out;
+}
+
+/** Tafel slope per decade ln10/(α f) from a transfer-coefficient parameter (interval mapped, SE by delta). */
+function slopeFromAlpha(alpha: FittedParameter, f: number): FittedParameter {
+  const value = Math.LN10 / (alpha.value * f);
+  const out: FittedParameter = { value, standardError: null, ci95: null, unit: 'V/decade' };
+  if (alpha.fixed) return { value, standardError: 0, ci95: [value, value], unit: 'V/decade', fixed: true, note: 'from a fixed transfer coefficient' };
+  if (alpha.standardError !== null) out.standardError = (value * alpha.standardError) / alpha.value;
+  if (alpha.ci95) out.ci95 = [Math.LN10 / (alpha.ci95[1] * f), Math.LN10 / (alpha.ci95[0] * f)];
+  return out;
+}
+
+function safeCorrelation(fit: NonlinearFit): number[][] {
+  try {
+    return correlationMatrix(fit.covariance);
+  } catch {
+    return fit.covariance.map((row, i) => row.map((_, j) => (i === j ? 1 : 0)));
+  }
+}
+
+interface Starts {
+  lnJ0: number;
+  alphaA: number;
+  alphaC: number;
+  phiA(jMax: number): number;
+  phiC(jMax: number): number;
+}
+
+/**
+ * Starting values: straight Tafel lines (η vs ln|j|) on each branch through the points above
+ * the low-field limit (or the upper half of the branch when fewer than 3 are there); j0
+ * from their intercepts (mean of ln j0), α from their slopes; else the low-field slope
+ * R_ct⁻¹ = dj/dη gives j0 = (dj/dη)/(f·(α_a + α_c)). The limiting-current start comes from
+ * the largest point: 1/j_lim = 1/j − 1/j_kinetic (series combination).
+ */
+function startingValues(J: number[], H: number[], T: number, knownRu: number): Starts {
+  const f = faradayOverRT(T);
+  const limit = lowFieldLimit(T, 1);
+  const lines: { branch: Branch; a: number; b: number }[] = [];
+  for (const branch of ['anodic', 'cathodic'] as const) {
+    const s = branch === 'anodic' ? 1 : -1;
+    const idx: number[] = [];
+    for (let i = 0; i < J.length; i++) if (Math.sign(J[i]) === s && s * (H[i] - J[i] * knownRu) > 0) idx.push(i);
+    if (idx.length < 2) continue;
+    idx.sort((p, q) => s * H[p] - s * H[q]);
+    let sel = idx.filter((i) => s * (H[i] - J[i] * knownRu) >= limit);
+    if (sel.length < 3) sel = idx.slice(Math.floor(idx.length / 2));
+    // Keep the lower 80 % of the high-field points to stay clear of mass-transport bending.
+    if (sel.length >= 6) sel = sel.slice(0, Math.ceil(sel.length * 0.8));
+    const x = sel.map((i) => Math.log(Math.abs(J[i])));
+    const y = sel.map((i) => s * (H[i] - J[i] * knownRu));
+    if (Math.max(...x) - Math.min(...x) <= 0) continue;
+    try {
+      const fit = linearLeastSquares(
+        x.map((v) => [1, v]),
+        y,
+        { hasIntercept: true, refinementSteps: 0 },
+      );
+      const [a, b] = fit.coefficients;
+      if (b > 0 && Number.isFinite(a)) lines.push({ branch, a, b });
+    } catch {
+      // no usable line on this branch
+    }
+  }
+  const clampAlpha = (v: number) => Math.min(ALPHA_START_RANGE[1], Math.max(ALPHA_START_RANGE[0], v));
+  let alphaA = 0.5;
+  let alphaC = 0.5;
+  const lnJ0s: number[] = [];
+  const lineOf: Partial<Record<Branch, { a: number; b: number }>> = {};
+  for (const l of lines) {
+    const alpha = clampAlpha(1 / (f * l.b));
+    if (l.branch === 'anodic') alphaA = alpha;
+    else alphaC = alpha;
+    lnJ0s.push(-l.a / l.b);
+    lineOf[l.branch] = l;
+  }
+  let lnJ0: number;
+  if (lnJ0s.length > 0) lnJ0 = lnJ0s.reduce((p, q) => p + q, 0) / lnJ0s.length;
+  else {
+    // Low-field slope through the origin: j ≈ (j0 f (α_a+α_c)) η.
+    let sxy = 0;
+    let sxx = 0;
+    const rt = 1 / f;
+    for (let i = 0; i < J.length; i++) {
+      const eta = H[i] - J[i] * knownRu;
+      if (Math.abs(eta) < rt) {
+        sxy += eta * J[i];
+        sxx += eta * eta;
+      }
+    }
+    const slope = sxx > 0 ? sxy / sxx : NaN;
+    lnJ0 = slope > 0 ? Math.log(slope / (f * (alphaA + alphaC))) : Math.log(minAbs(J));
+  }
+  const phiFrom = (branch: Branch, jMax: number): number => {
+    const l = lineOf[branch];
+    if (!l || !(jMax > 0)) return 0;
+    const s = branch === 'anodic' ? 1 : -1;
+    let yTop = -Infinity;
+    for (let i = 0; i < J.length; i++) if (Math.sign(J[i]) === s && Math.abs(J[i]) === jMax) yTop = s * (H[i] - J[i] * knownRu);
+    const lnJk = (yTop - l.a) / l.b;
+    const lnRatio = lnJk - Math.log(jMax); // ln(j_k/j)
+    if (!(lnRatio > 1e-3)) return 0;
+    // j_lim/j_max − 1 = 1/(1 − j/j_k) − 1 = 1/(j_k/j − 1)
+    const excess = 1 / Math.expm1(lnRatio);
+    return Math.min(5, Math.max(-3, Math.log(excess)));
+  };
+  return { lnJ0, alphaA, alphaC, phiA: (jm) => phiFrom('anodic', jm), phiC: (jm) => phiFrom('cathodic', jm) };
+}
+
+/**
+ * Residuals and analytic Jacobian of the BV fit, with warm-started η solves and a one-entry
+ * cache (the Jacobian is usually requested at the point whose residuals were just computed).
+ */
+class BvResidualModel {
+  private readonly n: number;
+  private readonly x: Float64Array; // last |η_BV| per point (warm start)
+  private readonly ev: BranchEval = newBranchEval();
+  private cacheTheta: number[] | null = null;
+  private cacheU: Unpacked | null = null;
+  private cacheRes: number[] = [];
+  // Per-point derivative factors at the cached θ: ∂η/∂(ln j0, α_a, α_c, ln j_lim,a, ln j_lim,c).
+  private readonly dLnJ0: Float64Array;
+  private readonly dAa: Float64Array;
+  private readonly dAc: Float64Array;
+  private readonly dLa: Float64Array;
+  private readonly dLc: Float64Array;
+  private readonly kern: { anodic: BranchKernel; cathodic: BranchKernel };
+
+  constructor(
+    private readonly J: number[],
+    private readonly H: number[],
+    private readonly f: number,
+    private readonly layout: Layout,
+    private readonly jMaxA: number,
+    private readonly jMaxC: number,
+  ) {
+    this.n = J.length;
+    this.x = new Float64Array(this.n).fill(NaN);
+    this.dLnJ0 = new Float64Array(this.n);
+    this.dAa = new Float64Array(this.n);
+    this.dAc = new Float64Array(this.n);
+    this.dLa = new Float64Array(this.n);
+    this.dLc = new Float64Array(this.n);
+    this.kern = makeKernels(0, 1, 1, Infinity, Infinity);
+  }
+
+  resetWarmStart(): void {
+    this.x.fill(NaN);
+    this.cacheTheta = null;
+  }
+
+  residuals(theta: number[]): number[] {
+    this.evaluate(theta);
+    return this.cacheRes.slice();
+  }
+
+  /** Jacobian ∂r_i/∂θ_k (n×p rows), assembled from the per-point factors at θ. */
+  jacobian(theta: number[]): number[][] {
+    this.evaluate(theta);
+    const u = this.cacheU as Unpacked;
+    const p = theta.length;
+    const jac: number[][] = new Array(this.n);
+    for (let i = 0; i < this.n; i++) {
+      const row = new Array<number>(p).fill(0);
+      for (const e of u.lnJ0Dep) row[e.index] += this.dLnJ0[i] * e.d;
+      for (const e of u.alphaADep) row[e.index] += this.dAa[i] * e.d;
+      for (const e of u.alphaCDep) row[e.index] += this.dAc[i] * e.d;
+      for (const e of u.limADep) row[e.index] += this.dLa[i] * e.d;
+      for (const e of u.limCDep) row[e.index] += this.dLc[i] * e.d;
+      for (const e of u.ruDep) row[e.index] += this.J[i] * e.d;
+      jac[i] = row;
+    }
+    return jac;
+  }
+
+  /** Model η at the data points. */
+  modelEta(theta: number[]): number[] {
+    this.evaluate(theta);
+    return this.cacheRes.map((r, i) => r + this.H[i]);
+  }
+
+  private setKernels(u: Unpacked): void {
+    const a = this.kern.anodic;
+    const c = this.kern.cathodic;
+    a.lnJ0 = u.lnJ0;
+    c.lnJ0 = u.lnJ0;
+    a.forwardSlope = u.alphaA * this.f;
+    a.backwardSlope = u.alphaC * this.f;
+    c.forwardSlope = u.alphaC * this.f;
+    c.backwardSlope = u.alphaA * this.f;
+    a.lnForwardLimit = u.lnLimA;
+    a.lnBackwardLimit = u.lnLimC;
+    c.lnForwardLimit = u.lnLimC;
+    c.lnBackwardLimit = u.lnLimA;
+  }
+
+  /** ln(|j|/j_lim) without cancellation near the fitted limit (uses the stored excess). */
+  private lnOverLimit(mag: number, lim: number, jMax: number, excess: number): number {
+    if (!Number.isFinite(lim)) return Math.log(mag);
+    if (Number.isFinite(excess) && mag >= 0.5 * lim) return Math.log1p(-((jMax - mag) + excess) / lim);
+    return lnRatioToLimit(mag, lim);
+  }
+
+  private evaluate(theta: number[]): void {
+    if (this.cacheTheta && sameVector(this.cacheTheta, theta)) return;
+    const u = this.layout.unpack(theta);
+    this.setKernels(u);
+    const res = new Array<number>(this.n);
+    const ev = this.ev;
+    const f = this.f;
+    for (let i = 0; i < this.n; i++) {
+      const j = this.J[i];
+      if (j === 0) {
+        res[i] = -this.H[i];
+        this.dLnJ0[i] = this.dAa[i] = this.dAc[i] = this.dLa[i] = this.dLc[i] = 0;
+        continue;
+      }
+      const anodic = j > 0;
+      const k = anodic ? this.kern.anodic : this.kern.cathodic;
+      const mag = Math.abs(j);
+      const lnT = Math.log(mag);
+      const lnO = anodic ? this.lnOverLimit(mag, u.limA, this.jMaxA, u.limAExcess) : this.lnOverLimit(mag, u.limC, this.jMaxC, u.limCExcess);
+      let xi = solveBranch(k, lnT, lnO, this.x[i], ev);
+      if (!Number.isFinite(xi)) xi = solveBranch(k, lnT, lnO, NaN, ev);
+      this.x[i] = xi;
+      const s = anodic ? 1 : -1;
+      res[i] = s * xi + j * u.ru - this.H[i];
+      // ∂ln|j|/∂q at fixed x, then ∂x/∂q = −(∂ln|j|/∂q)/(∂ln|j|/∂x); η = s·x.
+      const inv = -s / ev.dLnCurrentDx;
+      const p0 = ev.pZero;
+      const dFwd = xi * (p0 + ev.pBackward) + ev.xOverExpm1; // per unit forward slope
+      const dBwd = ev.xOverExpm1 + ev.pBackward * xi; // per unit backward slope
+      this.dLnJ0[i] = inv * p0;
+      this.dAa[i] = inv * (anodic ? dFwd : dBwd) * f;
+      this.dAc[i] = inv * (anodic ? dBwd : dFwd) * f;
+      this.dLa[i] = inv * (anodic ? ev.pForward : ev.pBackward);
+      this.dLc[i] = inv * (anodic ? ev.pBackward : ev.pForward);
+    }
+    this.cacheTheta = theta.slice();
+    this.cacheU = u;
+    this.cacheRes = res;
+  }
+
+  /** Model η (incl. j·R_u) at any j, or null when |j| is at/above the branch limit. */
+  etaAt(j: number, u: Unpacked): number | null {
+    if (j === 0) return 0;
+    this.setKernels(u);
+    const anodic = j > 0;
+    const lim = anodic ? u.limA : u.limC;
+    const mag = Math.abs(j);
+    if (mag >= lim) return null;
+    const x = solveBranch(anodic ? this.kern.anodic : this.kern.cathodic, Math.log(mag), lnRatioToLimit(mag, lim), NaN, newBranchEval());
+    if (!Number.isFinite(x)) return null;
+    return (anodic ? x : -x) + j * u.ru;
+  }
+
+  /** Fitted curve for plotting: log-spaced |j| on each branch with data, and j = 0. */
+  curve(u: Unpacked, jMaxA: number, jMaxC: number, jMinAbs: number): PolarizationPoint[] {
+    const out: PolarizationPoint[] = [];
+    const lo = Number.isFinite(jMinAbs) ? jMinAbs : 1;
+    const branchPoints = (jMax: number, s: number) => {
+      if (!(jMax > 0)) return;
+      const a = Math.log(Math.min(lo, jMax));
+      const b = Math.log(jMax);
+      for (let k = 0; k < CURVE_POINTS_PER_BRANCH; k++) {
+        const mag = Math.exp(a + ((b - a) * k) / (CURVE_POINTS_PER_BRANCH - 1));
+        const eta = this.etaAt(s * mag, u);
+        if (eta !== null) out.push({ currentDensity: s * mag, overpotential: eta });
+      }
+    };
+    branchPoints(jMaxC, -1);
+    out.reverse();
+    out.push({ currentDensity: 0, overpotential: 0 });
+    branchPoints(jMaxA, 1);
+    return out;
+  }
+}
+
+function sameVector(a: number[], b: number[]): boolean {
+  if (a.length !== b.length) return false;
+  for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
+  return true;
+}
