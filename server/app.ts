@@ -48,7 +48,7 @@ export function createApp(options: AppOptions = {}): Express {
   app.use('/assets', express.static(PUBLIC_DIR, { maxAge: '1h', index: false }));
   app.use('/vendor/chart.umd.min.js', (_req, res) => res.sendFile('chart.umd.min.js', { root: CHARTJS_DIR, maxAge: '1d' }));
 
-  app.use(express.json({ limit: '5mb' }));
+  app.use(express.json({ limit: '12mb' }));
   app.use(express.urlencoded({ extended: false, limit: '5mb', parameterLimit: 5000 }));
 
   app.get('/healthz', (_req, res) => {

@@ -61,7 +61,7 @@ describe('application foundation', () => {
   });
 
   it('rejects bodies above the size limit with 413', async () => {
-    const big = JSON.stringify({ pad: 'x'.repeat(6 * 1024 * 1024) });
+    const big = JSON.stringify({ pad: 'x'.repeat(13 * 1024 * 1024) });
     const res = await request(app).post('/api/v1/studies').set('Content-Type', 'application/json').send(big);
     expect(res.status).toBe(413);
   });
