@@ -51,6 +51,10 @@ export function createApp(options: AppOptions = {}): Express {
   app.use(express.json({ limit: '12mb' }));
   app.use(express.urlencoded({ extended: false, limit: '5mb', parameterLimit: 5000 }));
 
+  app.get('/favicon.ico', (_req, res) => {
+    res.status(204).end();
+  });
+
   app.get('/healthz', (_req, res) => {
     res.status(200).json({ status: 'ok' });
   });

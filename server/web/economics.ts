@@ -1,7 +1,264 @@
-import { Router } from 'express';
+/**
+ * Coatings and Costs: pages and JSON API.
+ *
+ * API (JSON in/out, SI except money; see server/scenario/economics-sections.ts for the exact
+ * request schemas). `?study=<id>` optionally names a study whose cell definition is used when
+ * the body gives no `cell`, and whose datasets and saved fits electrode swaps may name.
+ *
+ *   POST /api/v1/plant/cost
+ *     { product, chemistry?, cell?: { linear: { intercept V, slope V per A/m² } } | <cell definition>,
+ *       currentEfficiency? (0–1; required with plant data), electricityPrice (per kWh),
+ *       capitalCostPerArea (per m²), operatingHours (h/yr), discountRate (fraction/yr),
+ *       lifetime (yr), currentDensities [A/m², …] (required, ≥ 1; ≥ 2 different values unless
+ *       searchRange), searchRange? { min, max } A/m², designCurrentDensity? A/m²,
+ *       sensitivityFraction? (default 0.2), currency? (label) }
+ *   → { economicCurrentDensity A/m², optimum { currentDensity, cellVoltage, currentEfficiency,
+ *       specificEnergy J/kg, energyCost, capitalCost, totalCost (per kg), status, message,
+ *       display { energyPerTonne, capitalPerTonne, totalPerTonne } (decimal, half-up) },
+ *       closedForm: null | { economicCurrentDensity, formula, inputs { C, CRF, p, K, H } each
+ *       { value, unit } in SI, insideSearchRange, relativeDifference }, closedFormNote,
+ *       capitalRecoveryFactor 1/yr, design: null | {…}, searchRange, points [{ currentDensity,
+ *       cellVoltage, currentEfficiency, specificEnergy, energyCost, capitalCost, totalCost }],
+ *       sensitivity [{ parameter, label, low { value, totalPerTonne, display }, high {…}, swing,
+ *       note? }] (largest swing first), sensitivityBasis { currentDensity, basis, fraction,
+ *       baseTotalPerTonne, baseDisplay }, units, warnings }
+ *
+ *   POST /api/v1/plant/compare
+ *     { product, chemistry?, cell? (base cell for swaps; default the study's), currentEfficiency?,
+ *       currentDensity A/m², plant: { activeArea } | { cells, cellArea } | { productionRate kg/s },
+ *       electricityPrice (per kWh), operatingHours, discountRate, baseline? (index, default 0),
+ *       options: 2–6 × { name, pricePerArea (per m²), voltageRisePerYear (V/yr), lifeYears (whole),
+ *         and either cell (+ currentEfficiency) or anode?/cathode? swaps, each
+ *         { kinetics: {…}, limitingCurrentDensity? } | { fit: id } | { dataset: id } } }
+ *   → { activeArea m², annualProduction kg/yr, baseline, options [{ name, source, isBaseline,
+ *       cellVoltage, currentEfficiency, specificEnergy, averageCellVoltage, annualEnergy J/yr,
+ *       annualEnergyDifference, annualEnergyCost, annualSavingVsBaseline, coatingCapital,
+ *       extraCapital, simplePaybackYears | null, equivalentAnnualCost, npvVsBaseline, lifeYears,
+ *       display {…}, notes, kinetics { anode?, cathode? } }], units, warnings }
+ *
+ * Pages: GET/POST /costs and /coatings (forms in engineers' units; action=compute|csv|save,
+ * and resize on /coatings). Saving writes the request into the study's `costs`/`coatings`
+ * section; an example study is copied (303 to the copy).
+ */
+import { Router, type Request, type Response } from 'express';
+import type { Study } from '../scenario/schema.js';
 import type { StudyStore } from '../scenario/store.js';
+import { describeError } from './errors.js';
+import {
+  COSTS_LABELS,
+  COATINGS_LABELS,
+  OPTION_LABELS,
+  FormError,
+  coatingsCsv,
+  coatingsFormFromRequest,
+  coatingsRequestFromForm,
+  coatingsView,
+  compareFromBody,
+  costFromBody,
+  costsCsv,
+  costsFormFromRequest,
+  costsRequestFromForm,
+  costsView,
+  defaultCoatingsForm,
+  defaultCostsForm,
+  downloadName,
+  electrodeChoices,
+  productsOf,
+  readCoatingsForm,
+  readCostsForm,
+  relabel,
+  resizeOptions,
+  runCoatingComparison,
+  runCostStudy,
+  studyCellSource,
+  type CoatingsForm,
+  type CoatingsView,
+  type CostsForm,
+  type CostsView,
+} from './economics-view.js';
+import { pageContext } from './page.js';
+import { safetyPanelFor } from './safety-view.js';
 
-/** Placeholder while these pages are built. */
-export function economicsRouter(_store: StudyStore): Router {
-  return Router();
+function studyFromQuery(req: Request, store: StudyStore): Study | undefined {
+  return typeof req.query.study === 'string' && req.query.study ? store.get(req.query.study) : undefined;
+}
+
+/** Whether the study has a usable cell definition, and the reason when it has a broken one. */
+function studyCellState(study: Study): { hasCell: boolean; problem: string | null } {
+  try {
+    return { hasCell: studyCellSource(study) !== undefined, problem: null };
+  } catch (err) {
+    return { hasCell: false, problem: (err as Error).message };
+  }
+}
+
+function actionOf(req: Request): string {
+  const a = req.body && typeof req.body.action === 'string' ? req.body.action : 'compute';
+  return ['compute', 'csv', 'save', 'resize'].includes(a) ? a : 'compute';
+}
+
+function sendCsv(res: Response, name: string, text: string): void {
+  res.setHeader('Content-Type', 'text/csv; charset=utf-8');
+  res.setHeader('Content-Disposition', `attachment; filename="${name}"`);
+  res.send(text);
+}
+
+/** Page error: 400 with the error box; a 5xx is re-thrown to the app's error handler. */
+function pageError(err: unknown, page: 'costs' | 'coatings'): { status: number; error: { message: string; issues: Array<{ path: string; message: string }> }; fields: string[] } {
+  const mapped = relabel(err, page);
+  const { status, body } = describeError(mapped);
+  if (status >= 500) throw err;
+  return { status, error: body.error, fields: mapped instanceof FormError ? mapped.fields : [] };
+}
+
+/** Coatings and Costs pages and their JSON API. */
+export function economicsRouter(store: StudyStore): Router {
+  const r = Router();
+
+  // ----- JSON API -----
+  r.post('/api/v1/plant/cost', (req, res) => {
+    res.json(costFromBody(req.body, studyFromQuery(req, store)));
+  });
+  r.post('/api/v1/plant/compare', (req, res) => {
+    res.json(compareFromBody(req.body, studyFromQuery(req, store)));
+  });
+
+  // ----- Costs page -----
+  const renderCosts = (
+    req: Request,
+    res: Response,
+    opts: { form: CostsForm; view: CostsView | null; status?: number; error?: unknown; fields?: string[]; notice?: string | null },
+  ): void => {
+    const ctx = pageContext(req, store, 'Costs', '/costs');
+    const cell = studyCellState(ctx.study);
+    res.status(opts.status ?? 200).render('costs', {
+      ...ctx,
+      form: opts.form,
+      view: opts.view,
+      error: opts.error ?? null,
+      invalid: opts.fields ?? [],
+      notice: opts.notice ?? null,
+      hasStudyCell: cell.hasCell,
+      cellProblem: cell.problem,
+      products: productsOf(ctx.study.chemistry),
+      labels: COSTS_LABELS,
+    });
+  };
+
+  r.get('/costs', (req, res) => {
+    const ctx = pageContext(req, store, 'Costs', '/costs');
+    const { hasCell } = studyCellState(ctx.study);
+    const notice = req.query.saved === '1' ? 'Cost study saved to this study.' : null;
+    const section = ctx.study.costs;
+    if (!section) {
+      renderCosts(req, res, { form: defaultCostsForm(ctx.study, hasCell), view: null, notice });
+      return;
+    }
+    const form = costsFormFromRequest(section, hasCell);
+    try {
+      renderCosts(req, res, { form, view: costsView(runCostStudy(section, ctx.study)), notice });
+    } catch (err) {
+      const e = pageError(err, 'costs');
+      renderCosts(req, res, { form, view: null, error: e.error, fields: e.fields, notice });
+    }
+  });
+
+  r.post('/costs', (req, res) => {
+    const ctx = pageContext(req, store, 'Costs', '/costs');
+    const { hasCell } = studyCellState(ctx.study);
+    const form = readCostsForm(req.body);
+    const action = actionOf(req);
+    try {
+      const request = costsRequestFromForm(form, hasCell);
+      const result = runCostStudy(request, ctx.study);
+      if (action === 'csv') {
+        sendCsv(res, downloadName('costs', ctx.study.name), costsCsv(result, ctx.study.name));
+        return;
+      }
+      if (action === 'save') {
+        const id = store.save({ ...ctx.study, costs: request }, ctx.studyId);
+        res.redirect(303, `/costs?${new URLSearchParams({ study: id, saved: '1' }).toString()}`);
+        return;
+      }
+      renderCosts(req, res, { form, view: costsView(result) });
+    } catch (err) {
+      const e = pageError(err, 'costs');
+      renderCosts(req, res, { form, view: null, status: e.status, error: e.error, fields: e.fields });
+    }
+  });
+
+  // ----- Coatings page -----
+  const renderCoatings = (
+    req: Request,
+    res: Response,
+    opts: { form: CoatingsForm; view: CoatingsView | null; status?: number; error?: unknown; fields?: string[]; notice?: string | null },
+  ): void => {
+    const ctx = pageContext(req, store, 'Coatings', '/coatings');
+    const cell = studyCellState(ctx.study);
+    res.status(opts.status ?? 200).render('coatings', {
+      ...ctx,
+      form: opts.form,
+      view: opts.view,
+      error: opts.error ?? null,
+      invalid: opts.fields ?? [],
+      notice: opts.notice ?? null,
+      hasStudyCell: cell.hasCell,
+      cellProblem: cell.problem,
+      products: productsOf(ctx.study.chemistry),
+      labels: COATINGS_LABELS,
+      optionLabels: OPTION_LABELS,
+      anodeChoices: electrodeChoices(ctx.study, 'anode'),
+      cathodeChoices: electrodeChoices(ctx.study, 'cathode'),
+      // Coatings change the anode side reaction and the cathode of a plant handling chlorine or
+      // hydrogen at high DC current: the caution panel stays in view.
+      safetyPanel: safetyPanelFor(ctx.study.chemistry, ctx.link('/safety')),
+    });
+  };
+
+  r.get('/coatings', (req, res) => {
+    const ctx = pageContext(req, store, 'Coatings', '/coatings');
+    const notice = req.query.saved === '1' ? 'Coating comparison saved to this study.' : null;
+    const section = ctx.study.coatings;
+    if (!section) {
+      renderCoatings(req, res, { form: defaultCoatingsForm(ctx.study), view: null, notice });
+      return;
+    }
+    const form = coatingsFormFromRequest(section, ctx.study);
+    try {
+      renderCoatings(req, res, { form, view: coatingsView(runCoatingComparison(section, ctx.study)), notice });
+    } catch (err) {
+      const e = pageError(err, 'coatings');
+      renderCoatings(req, res, { form, view: null, error: e.error, fields: e.fields, notice });
+    }
+  });
+
+  r.post('/coatings', (req, res) => {
+    const ctx = pageContext(req, store, 'Coatings', '/coatings');
+    let form = readCoatingsForm(req.body);
+    const action = actionOf(req);
+    if (action === 'resize') {
+      form = resizeOptions(form, Number.parseInt(typeof req.body?.resize === 'string' ? req.body.resize : '', 10));
+      renderCoatings(req, res, { form, view: null, notice: `${form.options.length} options: fill in the new ones and compute.` });
+      return;
+    }
+    try {
+      const request = coatingsRequestFromForm(form, ctx.study);
+      const result = runCoatingComparison(request, ctx.study);
+      if (action === 'csv') {
+        sendCsv(res, downloadName('coatings', ctx.study.name), coatingsCsv(result, ctx.study.name));
+        return;
+      }
+      if (action === 'save') {
+        const id = store.save({ ...ctx.study, coatings: request }, ctx.studyId);
+        res.redirect(303, `/coatings?${new URLSearchParams({ study: id, saved: '1' }).toString()}`);
+        return;
+      }
+      renderCoatings(req, res, { form, view: coatingsView(result) });
+    } catch (err) {
+      const e = pageError(err, 'coatings');
+      renderCoatings(req, res, { form, view: null, status: e.status, error: e.error, fields: e.fields });
+    }
+  });
+
+  return r;
 }
