@@ -1,0 +1,455 @@
+/**
+ * The Cell page (GET/POST /cell, works without JavaScript) and its form ↔ SI mapping.
+ */
+import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import request from 'supertest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { createApp } from '../../server/app.js';
+import { fitTafel } from '../../server/core/kinetics/index.js';
+import { cellSectionSchema } from '../../server/scenario/cell-section.js';
+import { parseStudyText } from '../../server/scenario/store.js';
+import { alphaFromSlope, buildCell, formFromSection, kineticsFromFit, readForm, tafelLineUncertainty } from '../../server/web/cell-form.js';
+import { exampleCell } from '../../scripts/example-cell.js';
+import { expectClose } from '../helpers/close.js';
+
+const EXAMPLE_ID = 'example-brackwater-pilot';
+const exampleStudy = parseStudyText(readFileSync(path.resolve('scenarios/brackwater-pilot.study.json'), 'utf8'));
+
+let dir: string;
+let app: ReturnType<typeof createApp>;
+
+beforeAll(() => {
+  dir = mkdtempSync(path.join(os.tmpdir(), 'studies-cell-page-'));
+  app = createApp({ studyDir: dir });
+});
+afterAll(() => rmSync(dir, { recursive: true, force: true }));
+
+// ---------------------------------------------------------------------------------------------
+// Small HTML helpers for our own markup (no DOM library is installed).
+
+function unescapeHtml(s: string): string {
+  return s.replace(/&#34;/g, '"').replace(/&#39;/g, "'").replace(/&lt;/g, '<').replace(/&gt;/g, '>').replace(/&amp;/g, '&');
+}
+
+function attr(tag: string, name: string): string | undefined {
+  const m = new RegExp(`\\s${name.replace(/[.]/g, '\\.')}="([^"]*)"`).exec(tag);
+  return m ? unescapeHtml(m[1]) : undefined;
+}
+
+/** The fields a browser would post from the page's cell form (inputs, checked radios/boxes, selected options). */
+function formFields(html: string): Record<string, string> {
+  const start = html.indexOf('<form id="cell-form"');
+  const form = html.slice(start, html.indexOf('</form>', start));
+  const out: Record<string, string> = {};
+  for (const m of form.matchAll(/<input\b[^>]*>/g)) {
+    const tag = m[0];
+    const name = attr(tag, 'name');
+    if (!name) continue;
+    const type = attr(tag, 'type') ?? 'text';
+    if ((type === 'radio' || type === 'checkbox') && !/\schecked\b/.test(tag)) continue;
+    out[name] = attr(tag, 'value') ?? '';
+  }
+  for (const m of form.matchAll(/<select\b([^>]*)>([\s\S]*?)<\/select>/g)) {
+    const name = attr(m[1], 'name');
+    if (!name) continue;
+    const options = [...m[2].matchAll(/<option\b([^>]*)>/g)].map((o) => ({ value: attr(o[1], 'value') ?? '', selected: /\sselected\b/.test(o[1]) }));
+    out[name] = (options.find((o) => o.selected) ?? options[0])?.value ?? '';
+  }
+  return out;
+}
+
+/** Rows of the design breakdown table: label → mV. */
+function breakdownMv(html: string): Record<string, number> {
+  const table = /<table class="grid" id="design-breakdown"[\s\S]*?<\/table>/.exec(html)?.[0] ?? '';
+  const out: Record<string, number> = {};
+  for (const m of table.matchAll(/<tr><td>(?:<strong>)?([^<]+)(?:<\/strong>)?<\/td><td class="num">([-\d.]+)<\/td>/g)) out[m[1]] = Number(m[2]);
+  return out;
+}
+
+function charts(html: string): Array<{ data: { datasets: Array<{ label: string; data: Array<{ x: number; y: number }> }> } }> {
+  return [...html.matchAll(/<canvas class="chart"[^>]*data-chart="([^"]*)"/g)].map((m) => JSON.parse(unescapeHtml(m[1])));
+}
+
+async function postForm(fields: Record<string, string>) {
+  return request(app).post('/cell').type('form').send(fields);
+}
+
+async function examplePageFields(): Promise<Record<string, string>> {
+  const res = await request(app).get(`/cell?study=${EXAMPLE_ID}`);
+  expect(res.status).toBe(200);
+  return formFields(res.text);
+}
+
+// ---------------------------------------------------------------------------------------------
+
+describe('Cell page', () => {
+  it('opens the example with its cell filled in and computed', async () => {
+    const res = await request(app).get('/cell');
+    expect(res.status).toBe(200);
+    const html = res.text;
+    expect(html).toContain('Voltage balance at the design point, 5.5 kA/m²');
+    const mv = breakdownMv(html);
+    // check-values.md §9a (from memory, low confidence): ≈ 2.9–3.2 V at 5–6 kA/m².
+    expect(mv['Cell voltage U']).toBeGreaterThan(2900);
+    expect(mv['Cell voltage U']).toBeLessThan(3200);
+    // Identity: the printed parts add up to the printed U (each rounded to 0.1 mV).
+    const parts = Object.entries(mv).filter(([k]) => k !== 'Cell voltage U').map(([, v]) => v);
+    expectClose(parts.reduce((a, b) => a + b, 0), mv['Cell voltage U'], { atol: 0.05 * parts.length }, 'parts sum to U');
+    // Hardware 0.05 Ω·cm² × 5.5 kA/m² = 5e-6 Ω·m² × 5500 A/m² = 27.5 mV (Ohm's law).
+    expectClose(mv['Hardware j·R_hw'], 27.5, { atol: 0.051 }, 'hardware drop');
+    // Form filled from the study's cell.
+    const f = formFields(html);
+    expect(f['anode.alpha']).toBe('1.85');
+    expect(f['cathode.j0']).toBe('18.6');
+    expect(f['membrane.asr']).toBe('0.55');
+    expect(f['ce.model']).toBe('parasitic');
+    expect(f['band']).toBe('on');
+    // Charts carry whole Chart.js configurations.
+    const [voltage, efficiency] = charts(html);
+    const labels = voltage.data.datasets.map((d) => d.label);
+    for (const l of ['Reversible voltage', 'Anode overpotential', 'Cathode overpotential', 'Membrane', 'Electrolyte gaps', 'Hardware', 'Cell voltage U', '95 % band (upper)']) {
+      expect(labels).toContain(l);
+    }
+    expect(voltage.data.datasets.find((d) => d.label === 'Cell voltage U')!.data.length).toBe(14);
+    expect(efficiency.data.datasets.map((d) => d.label).join('|')).toMatch(/Specific energy Cl₂, DC/);
+    expect(html).toMatch(/kWh\/t/);
+    expect(html).toContain('id="kfactor-table"');
+    expect(html).toContain('Chlorine is a toxic gas');
+    expect(html).toContain('licensed engineering practice govern');
+    // No inline scripts (strict CSP; the page works with JavaScript off).
+    expect(html).not.toMatch(/<script(?![^>]*\bsrc=)[^>]*>/);
+  });
+
+  it('recomputes on POST: +0.5 Ω·cm² hardware adds 275 mV at 5.5 kA/m²', async () => {
+    const fields = await examplePageFields();
+    const before = breakdownMv((await postForm(fields)).text);
+    const res = await postForm({ ...fields, hardware: '0.55' });
+    expect(res.status).toBe(200);
+    const after = breakdownMv(res.text);
+    // Ohm's law: ΔU = ΔR·j = 0.5e-4 Ω·m² × 5500 A/m² = 0.275 V.
+    expectClose(after['Hardware j·R_hw'], 302.5, { atol: 0.051 }, 'hardware drop');
+    expectClose(after['Cell voltage U'] - before['Cell voltage U'], 275, { atol: 0.11 }, 'ΔU');
+    expect(formFields(res.text).hardware).toBe('0.55');
+  });
+
+  it('takes kinetics from the study datasets, fitted on the fly', async () => {
+    const fields = await examplePageFields();
+    const res = await postForm({
+      ...fields,
+      'anode.source': 'dataset',
+      'anode.dataset': 'anode-a-88c',
+      'cathode.source': 'dataset',
+      'cathode.dataset': 'cathode-c-88c',
+    });
+    expect(res.status).toBe(200);
+    const html = unescapeHtml(res.text);
+    expect(html).toContain('Tafel fit of dataset "Anode coating A, 88 °C"');
+    expect(html).toContain('Tafel fit of dataset "Cathode C (activated Ni), 88 °C"');
+    const mv = breakdownMv(res.text);
+    expect(mv['Cell voltage U']).toBeGreaterThan(2900);
+    expect(mv['Cell voltage U']).toBeLessThan(3200);
+  });
+
+  it('a dataset of the wrong electrode is an input problem on that field', async () => {
+    const fields = await examplePageFields();
+    const res = await postForm({ ...fields, 'anode.source': 'dataset', 'anode.dataset': 'cathode-c-88c' });
+    expect(res.status).toBe(400);
+    expect(res.text).toContain('Input problem');
+    expect(unescapeHtml(res.text)).toMatch(/Anode: dataset<\/strong>: "Cathode C \(activated Ni\), 88 °C" is a cathode dataset/);
+    expect(res.text).toMatch(/<select name="anode\.dataset" aria-label="[^"]*" aria-invalid="true">/);
+  });
+
+  it('form problems name the field: void fraction 1, a non-number, an empty sweep range', async () => {
+    const fields = await examplePageFields();
+    const res = await postForm({ ...fields, 'gap1.voidFraction': '1', temperatureC: 'warm', jMax: '0.2' });
+    expect(res.status).toBe(400);
+    const html = unescapeHtml(res.text);
+    expect(html).toContain('Gap 1: void fraction</strong>: must be < 1');
+    expect(html).toContain('Temperature</strong>: "warm" is not a number');
+    expect(html).toContain('Highest current density</strong>: must be above the lowest current density');
+    expect(res.text).toMatch(/name="gap1\.voidFraction" value="1" aria-label="[^"]*" aria-invalid="true"/);
+    // The form keeps what was typed.
+    expect(formFields(res.text).temperatureC).toBe('warm');
+  });
+
+  it('physics problems from the core are mapped back to form fields', async () => {
+    const fields = await examplePageFields();
+    const res = await postForm({ ...fields, 'cathode.limitingCurrent': '8', jDesign: '9', jMax: '7' });
+    expect(res.status).toBe(400);
+    const html = unescapeHtml(res.text);
+    expect(html).toMatch(/Design current density<\/strong>: j = 9000 A\/m² is at or above the cathode limiting current density/);
+    expect(html).toContain('(<code>designCurrentDensity</code>)');
+    const hot = await postForm({ ...fields, temperatureC: '120' });
+    expect(hot.status).toBe(400);
+    expect(unescapeHtml(hot.text)).toMatch(/Temperature<\/strong>: .*outside the .* validity range/);
+  });
+
+  it('downloads the sweep as CSV', async () => {
+    const fields = await examplePageFields();
+    const res = await postForm({ ...fields, action: 'csv' });
+    expect(res.status).toBe(200);
+    expect(res.headers['content-type']).toMatch(/^text\/csv/);
+    expect(res.headers['content-disposition']).toMatch(/attachment; filename="brackwater-bay-pilot-line-fictional-cell-sweep\.csv"/);
+    const lines = res.text.trim().split('\r\n');
+    expect(lines[0]).toMatch(/^# Cell sweep: Brackwater Bay pilot line/);
+    const header = lines[1].split(',');
+    expect(header[0]).toBe('current density [kA/m2]');
+    expect(header).toContain('cell voltage [V]');
+    expect(header).toContain('specific energy Cl2 AC [kWh/t]');
+    const rows = lines.slice(2).map((l) => l.split(',').map(Number));
+    expect(rows.length).toBe(14);
+    expectClose(rows[0][0], 0.5, { rtol: 1e-12 }, 'first j');
+    expectClose(rows[13][0], 7, { rtol: 1e-12 }, 'last j');
+    // Same numbers as the JSON API for the same cell (the page and the API share the core).
+    const api = await request(app).post('/api/v1/cell/sweep').send(exampleCell().cell);
+    const iU = header.indexOf('cell voltage [V]');
+    rows.forEach((r, i) => expectClose(r[iU], api.body.points[i].cellVoltage, { rtol: 1e-9 }, `U row ${i}`));
+    for (const r of rows) expect(r.every(Number.isFinite)).toBe(true);
+  });
+
+  it('saves the cell into a copy of the read-only example (303), then into the copy itself', async () => {
+    const fields = await examplePageFields();
+    const res = await postForm({ ...fields, hardware: '0.07', action: 'save' });
+    expect(res.status).toBe(303);
+    const location = res.headers.location as string;
+    const url = new URL(location, 'http://x');
+    expect(url.pathname).toBe('/cell');
+    expect(url.searchParams.get('saved')).toBe('copy');
+    const id = url.searchParams.get('study')!;
+    expect(id).not.toBe(EXAMPLE_ID);
+    const saved = await request(app).get(`/api/v1/studies/${id}`);
+    expect(saved.status).toBe(200);
+    expectClose(saved.body.cell.ohmic.hardware, 0.07e-4, { rtol: 1e-12 }, 'saved hardware Ω·m²');
+    expect(saved.body.cell.currentDensities.length).toBe(14);
+    expect(saved.body.cell.uncertainty).toEqual({ samples: 2000, seed: 42 });
+    // The example is unchanged.
+    const example = await request(app).get(`/api/v1/studies/${EXAMPLE_ID}`);
+    expectClose(example.body.cell.ohmic.hardware, 0.05e-4, { rtol: 1e-12 }, 'example hardware');
+    // The copy opens with the saved cell and a notice.
+    const page = await request(app).get(location);
+    expect(page.status).toBe(200);
+    expect(page.text).toContain('saved into a new copy');
+    expect(formFields(page.text).hardware).toBe('0.07');
+    // Saving a saved study keeps its id.
+    const again = await postForm({ ...formFields(page.text), hardware: '0.08', action: 'save' });
+    expect(again.status).toBe(303);
+    const url2 = new URL(again.headers.location as string, 'http://x');
+    expect(url2.searchParams.get('study')).toBe(id);
+    expect(url2.searchParams.get('saved')).toBe('1');
+  });
+
+  it('a study without a cell opens with starting values fitted from its datasets', async () => {
+    const { cell: _cell, ...rest } = exampleStudy;
+    void _cell;
+    const created = await request(app).post('/api/v1/studies').send({ ...rest, name: 'No cell yet (test)' });
+    expect(created.status).toBe(201);
+    const res = await request(app).get(`/cell?study=${created.body.id}`);
+    expect(res.status).toBe(200);
+    expect(res.text).toContain('no cell yet');
+    const f = formFields(res.text);
+    expect(f['anode.source']).toBe('dataset');
+    expect(f['anode.dataset']).toBe('anode-a-88c'); // the anode dataset nearest the 88 °C operating temperature
+    expect(f['cathode.source']).toBe('dataset');
+    expect(res.text).toContain('id="design-table"');
+  });
+
+  it('uses a kinetic fit saved in the study', async () => {
+    const d = exampleStudy.datasets.find((x) => x.id === 'anode-a-88c')!;
+    const pts = d.points.map((p) => ({ currentDensity: p.currentDensity, overpotential: p.potential - d.equilibriumPotential! }));
+    const t = fitTafel(pts, { temperature: d.temperature, window: 'auto', uncompensatedResistance: d.uncompensatedResistance ?? 0, branch: 'anodic' });
+    const param = (p: { value: number; standardError: number | null; unit: string }) => ({ value: p.value, standardError: p.standardError ?? undefined, unit: p.unit });
+    const fit = {
+      id: 'anode-a-88c-tafel',
+      name: 'Coating A at 88 °C (Tafel)',
+      datasetId: d.id,
+      electrode: 'anode',
+      model: 'tafel',
+      temperature: d.temperature,
+      parameters: {
+        exchangeCurrentDensity: param(t.parameters.exchangeCurrentDensity),
+        tafelSlope: param(t.parameters.tafelSlope),
+        transferCoefficient: param(t.parameters.transferCoefficient),
+      },
+      correlation: t.correlation,
+    };
+    const created = await request(app).post('/api/v1/studies').send({ ...exampleStudy, name: 'With a saved fit (test)', fits: [fit] });
+    expect(created.status).toBe(201);
+    const page = await request(app).get(`/cell?study=${created.body.id}`);
+    const fields = formFields(page.text);
+    const res = await postForm({ ...fields, 'anode.source': 'fit', 'anode.fit': fit.id });
+    expect(res.status).toBe(200);
+    expect(unescapeHtml(res.text)).toContain('Saved Tafel fit "Coating A at 88 °C (Tafel)"');
+    // The kinetics table shows the fit's α and a correlation for the band.
+    const row = /<tr>\s*<td>Anode<\/td>[\s\S]*?<\/tr>/.exec(res.text)![0];
+    const cells = [...row.matchAll(/<td class="num">([^<]*)<\/td>/g)].map((m) => m[1]);
+    expectClose(Number(cells[0]), t.parameters.transferCoefficient.value, { rtol: 5e-4 }, 'α shown (4 significant digits)');
+    expect(Number(cells[cells.length - 1])).toBeLessThan(-0.9);
+  });
+
+  it('loads starting values for another chemistry', async () => {
+    const fields = await examplePageFields();
+    const res = await postForm({ ...fields, chemistry: 'pem-water', action: 'defaults' });
+    expect(res.status).toBe(200);
+    const f = formFields(res.text);
+    expect(f.chemistry).toBe('pem-water');
+    expect(f['membrane.mode']).toBe('springer');
+    expect(res.text).toContain('kWh/kg');
+  });
+});
+
+describe('Cell form ↔ SI definition', () => {
+  it('round-trips the example section through the form without change', () => {
+    const section = cellSectionSchema.parse(exampleCell().cell);
+    const form = formFromSection(section);
+    const rebuilt = buildCell(readForm(flatten(form)), exampleStudy).section;
+    compareTrees(rebuilt, section, 'section');
+  });
+
+  it('converts wt % to molality: 32 wt % NaOH = 11.766 mol/kg', () => {
+    const section = cellSectionSchema.parse(exampleCell().cell);
+    const form = { ...formFromSection(section), compositionUnit: 'wt%' as const, causticNaOH: '32', brineNaCl: '20' };
+    const built = buildCell(form, exampleStudy).section;
+    // check-values.md §4d (CRC Handbook, concentrative properties): 32 wt % NaOH → 11.766 mol/kg;
+    // 20 wt % NaCl → 4.278 mol/kg.
+    expectClose(built.composition!.causticNaOH!, 11.766, { rtol: 2e-4 }, 'NaOH molality');
+    expectClose(built.composition!.brineNaCl!, 4.278, { rtol: 2e-4 }, 'NaCl molality');
+  });
+
+  it('turns a Tafel slope into α: 59.159 mV/decade at 25 °C is α = 1', () => {
+    // check-values.md §1: ln(10)·RT/F = 59.159 mV at 298.15 K (derived from exact R and F).
+    expectClose(alphaFromSlope(0.059159, 298.15), 1, { rtol: 2e-5 }, 'α');
+    // domain.md §3: at 25 °C, α = 0.5 → 118 mV/decade.
+    expectClose(alphaFromSlope(0.118318, 298.15), 0.5, { rtol: 2e-5 }, 'α for 118 mV/decade');
+  });
+
+  it('recovers corr(ln j0, α) of a Tafel fit from its stored statistics, as the full covariance gives it', () => {
+    // Independent route: the Tafel fit's own intercept a with SE(a) and corr(a, b) give
+    // Cov(ln j0, b) = −ρσaσb/b + aσb²/b² directly (delta method), with no root to choose.
+    for (const id of ['anode-a-88c', 'cathode-c-88c', 'cathode-d-70c']) {
+      const d = exampleStudy.datasets.find((x) => x.id === id)!;
+      const eq = d.potentialKind === 'electrode' ? d.equilibriumPotential! : 0;
+      const pts = d.points.map((p) => ({ currentDensity: p.currentDensity, overpotential: p.potential - eq }));
+      const branch = d.electrode === 'anode' ? 'anodic' : 'cathodic';
+      const t = fitTafel(pts, { temperature: d.temperature, window: 'auto', uncompensatedResistance: d.uncompensatedResistance ?? 0, branch });
+      const b = t.parameters.tafelSlope.value / Math.LN10;
+      const sb = t.parameters.tafelSlope.standardError! / Math.LN10;
+      const a = t.parameters.intercept.value;
+      const sa = t.parameters.intercept.standardError!;
+      const rho = t.correlation.matrix[0][1];
+      const j0 = t.parameters.exchangeCurrentDensity;
+      const sL = j0.standardError! / j0.value;
+      const expected = -((-rho * sa * sb) / b + (a * sb * sb) / (b * b)) / (sL * sb);
+      const u = tafelLineUncertainty({
+        slopePerEFold: b,
+        slopeSE: sb,
+        lnJ0: Math.log(j0.value),
+        lnJ0SE: sL,
+        rhoAB: rho,
+        alpha: t.parameters.transferCoefficient.value,
+        alphaSE: t.parameters.transferCoefficient.standardError!,
+      });
+      expect(u, id).toBeDefined();
+      expectClose(u!.correlation, expected, { rtol: 1e-8, atol: 1e-10 }, `${id} corr(ln j0, α)`);
+      expectClose(u!.lnExchangeCurrentDensitySE, sL, { rtol: 1e-12 }, `${id} SE ln j0`);
+      // And through the saved-fit shape (no intercept stored).
+      const fromSaved = kineticsFromFit(
+        {
+          model: 'tafel',
+          parameters: { exchangeCurrentDensity: j0, tafelSlope: t.parameters.tafelSlope, transferCoefficient: t.parameters.transferCoefficient },
+          correlation: t.correlation,
+        },
+        d.electrode,
+        d.temperature,
+        id,
+      );
+      expectClose(fromSaved.kinetics.uncertainty!.correlation, expected, { rtol: 1e-8, atol: 1e-10 }, `${id} saved-fit route`);
+    }
+  });
+
+  it('takes a saved Butler–Volmer fit with its ln j0–ln α correlation', () => {
+    const k = kineticsFromFit(
+      {
+        model: 'butler-volmer',
+        parameters: {
+          exchangeCurrentDensity: { value: 20, standardError: 2 },
+          anodicTransferCoefficient: { value: 0.5, standardError: 0.1 },
+          cathodicTransferCoefficient: { value: 1.4, standardError: 0.02 },
+        },
+        correlation: { names: ['ln j0', 'ln α_a', 'ln α_c'], matrix: [[1, 0.3, -0.8], [0.3, 1, 0.1], [-0.8, 0.1, 1]] },
+      },
+      'cathode',
+      361.15,
+      'test fit',
+    );
+    expect(k.kinetics.model).toBe('butler-volmer');
+    expectClose(k.kinetics.uncertainty!.lnExchangeCurrentDensitySE, 0.1, { rtol: 1e-12 }, 'SE ln j0 = SE(j0)/j0');
+    expectClose(k.kinetics.uncertainty!.transferCoefficientSE, 0.02, { rtol: 1e-12 }, 'SE α_c');
+    expectClose(k.kinetics.uncertainty!.correlation, -0.8, { rtol: 1e-12 }, 'corr(ln j0, α_c)');
+  });
+});
+
+/** Flatten a CellForm into the posted field names (mirror of readForm). */
+function flatten(form: ReturnType<typeof formFromSection>): Record<string, string> {
+  const out: Record<string, string> = {
+    chemistry: form.chemistry,
+    temperatureC: form.temperatureC,
+    pressureBar: form.pressureBar,
+    compositionUnit: form.compositionUnit,
+    brineNaCl: form.brineNaCl,
+    causticNaOH: form.causticNaOH,
+    koh: form.koh,
+    reversibleOverride: form.reversibleOverride,
+    'membrane.mode': form.membraneMode,
+    'membrane.asr': form.membraneAsr,
+    'membrane.refTempC': form.membraneRefTempC,
+    'membrane.activationEnergy': form.membraneEa,
+    'membrane.thickness': form.membraneThickness,
+    'membrane.conductivity': form.membraneConductivity,
+    'membrane.springerThickness': form.springerThickness,
+    'membrane.waterContent': form.springerLambda,
+    hardware: form.hardware,
+    'ce.model': form.ceModel,
+    'ce.value': form.ceValue,
+    'ce.parasitic': form.ceParasitic,
+    'ce.saved': form.ceSaved,
+    jMin: form.jMin,
+    jMax: form.jMax,
+    jSteps: form.jSteps,
+    jDesign: form.jDesign,
+    rectifierEfficiency: form.rectifierEfficiency,
+    bandSamples: form.bandSamples,
+    bandSeed: form.bandSeed,
+  };
+  if (form.band) out.band = 'on';
+  for (const role of ['anode', 'cathode'] as const) {
+    for (const [k, v] of Object.entries(form[role])) out[`${role}.${k}`] = String(v);
+  }
+  form.gaps.forEach((g, i) => {
+    for (const [k, v] of Object.entries(g)) out[`gap${i + 1}.${k}`] = String(v);
+  });
+  return out;
+}
+
+/** Deep comparison with a relative tolerance on numbers (the form prints 12 significant digits). */
+function compareTrees(actual: unknown, expected: unknown, where: string): void {
+  if (typeof expected === 'number') {
+    expectClose(actual as number, expected, { rtol: 1e-11 }, where);
+    return;
+  }
+  if (Array.isArray(expected)) {
+    expect(Array.isArray(actual), where).toBe(true);
+    expect((actual as unknown[]).length, where).toBe(expected.length);
+    expected.forEach((e, i) => compareTrees((actual as unknown[])[i], e, `${where}[${i}]`));
+    return;
+  }
+  if (expected && typeof expected === 'object') {
+    const a = actual as Record<string, unknown>;
+    expect(Object.keys(a).sort(), where).toEqual(Object.keys(expected).sort());
+    for (const [k, v] of Object.entries(expected)) compareTrees(a[k], v, `${where}.${k}`);
+    return;
+  }
+  expect(actual, where).toEqual(expected);
+}
+
