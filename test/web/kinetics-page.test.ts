@@ -202,7 +202,7 @@ describe('POST /kinetics', () => {
     expect(csv.text).toContain('parameter,symbol,value,standard error,95% low,95% high,unit,fixed');
     expect(csv.text).toContain('Tafel slope,b,');
     const pointLines = csv.text.split('\r\n').filter((l) => /^-?\d/.test(l));
-    expect(pointLines).toHaveLength(24); // every point of the dataset, used or not
+    expect(pointLines).toHaveLength(28); // every point of the dataset, used or not
 
     const json = await request(app).post('/kinetics').type('form').send({ ...v, action: 'json' }).buffer(true).parse((res, cb) => {
       let data = '';
