@@ -378,7 +378,7 @@ export function checkLimitingCurrent(currentDensity: number, limitingCurrentDens
     id: 'limiting-current',
     title: 'Current density against the limiting current',
     level,
-    message: `Current density ${currentDensity.toPrecision(4)} A/m² is ${(100 * ratio).toPrecision(3)} % of the limiting ${limitingCurrentDensity.toPrecision(4)} A/m²: ${verdict}.`,
+    message: `Current density ${(currentDensity / 1e3).toFixed(2)} kA/m² is ${(100 * ratio).toFixed(1)} % of the limiting ${(limitingCurrentDensity / 1e3).toFixed(2)} kA/m²: ${verdict}.`,
     value: currentDensity,
     limit: LIMITING_CURRENT_ALARM * limitingCurrentDensity,
     cautionLimit: LIMITING_CURRENT_CAUTION * limitingCurrentDensity,
