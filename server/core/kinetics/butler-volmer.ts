@@ -18,8 +18,16 @@
  *   R_u unconstrained (a negative fitted value earns a warning).
  * Reported values map the parameter estimates back; standard errors by the delta method;
  * 95 % intervals are the intervals on θ (± t·SE, t = t_{0.975, n−p}) mapped through the
- * monotone transformations (asymmetric for j0, α and limiting currents).
+ * monotone transformations (asymmetric for j0 and α). A fitted limiting current gets the
+ * 95 % profile-likelihood interval instead (its likelihood is strongly skewed when the
+ * bending is weak, and the linearised interval then misses the true value far too often);
+ * an upper end the data do not reach is reported as open (ci95 null, with a warning).
  * Covariance: s²(JᵀJ)⁻¹ with s² = RSS/(n − p) (σ estimated from the scatter).
+ * Fallbacks, each announced by a warning: a fitted limit that runs beyond 100× the largest
+ * |j|, or whose fit does not converge, is left out; on one-branch data a free reverse-branch
+ * α that the fit drives out of the plausible range (to 0 or ∞, where the model no longer
+ * depends on it) or cannot identify is held (α_a + α_c = n when n is given, else at the edge
+ * of the plausible range) and the fit repeated.
  * Sources: Butler–Volmer with limiting currents as in domain.md §3; Levenberg–Marquardt
  * (Moré 1978) via numerics; delta method and interval mapping (common practice).
  */
@@ -101,6 +109,18 @@ const PHI_MIN = -700;
 const PHI_MAX = 40;
 /** φ above which a fitted limiting current counts as having run away (j_lim > 100·j_max). */
 const PHI_RUNAWAY = Math.log(LIMIT_RUNAWAY_FACTOR - 1);
+/**
+ * Search range of φ = ln(j_lim/j_max − 1) for profile-likelihood interval ends: an end not
+ * reached above PHI_RUNAWAY (j_lim = 100·j_max) is reported as open (no upper bound from
+ * these data); below PROFILE_PHI_LOW (j_lim within 2e-9 of j_max) the lower end is taken as
+ * j_max itself (project choices).
+ */
+const PROFILE_PHI_LOW = -20;
+/** Bracketing steps (doubling) and regula-falsi refinements per interval end (project choice). */
+const PROFILE_MAX_BRACKET_STEPS = 10;
+const PROFILE_MAX_REFINE_STEPS = 12;
+/** Stop refining an interval end when the bracket on φ is this narrow (project choice; 1e-3 in φ ≈ 0.1 % in j_lim − j_max). */
+const PROFILE_PHI_TOLERANCE = 1e-3;
 /** Clamp of starting transfer coefficients (project choice). */
 const ALPHA_START_RANGE: [number, number] = [0.1, 3];
 const CURVE_POINTS_PER_BRANCH = 50;
@@ -143,6 +163,16 @@ const sigmoid = (p: number) => 1 / (1 + Math.exp(-p));
  * fixed limiting current.
  */
 export function fitButlerVolmer(points: PolarizationPoint[], options: ButlerVolmerFitOptions): ButlerVolmerFitResult {
+  return fitButlerVolmerWith(points, options, true);
+}
+
+/**
+ * fitButlerVolmer with one internal switch: `mayDropLimits` allows the fallback that refits
+ * without a fitted limiting current when the fit with it does not converge (off while
+ * the reverse-branch α holds are tried, so that a failing hold is not "rescued" by silently
+ * changing the mass-transport model before the other hold had its chance).
+ */
+function fitButlerVolmerWith(points: PolarizationPoint[], options: ButlerVolmerFitOptions, mayDropLimits: boolean): ButlerVolmerFitResult {
   checkPoints(points, { rejectZeroCurrent: false });
   checkTemperature(options.temperature);
   const T = options.temperature;
@@ -369,16 +399,78 @@ export function fitButlerVolmer(points: PolarizationPoint[], options: ButlerVolm
   const runawayA = iLa >= 0 && theta[iLa] > PHI_RUNAWAY;
   const runawayC = iLc >= 0 && theta[iLc] > PHI_RUNAWAY;
   if (runawayA || runawayC) {
-    const again = fitButlerVolmer(points, {
-      ...options,
-      anodicLimitingCurrentDensity: runawayA ? undefined : options.anodicLimitingCurrentDensity,
-      cathodicLimitingCurrentDensity: runawayC ? undefined : options.cathodicLimitingCurrentDensity,
-    });
+    const again = fitButlerVolmerWith(
+      points,
+      {
+        ...options,
+        anodicLimitingCurrentDensity: runawayA ? undefined : options.anodicLimitingCurrentDensity,
+        cathodicLimitingCurrentDensity: runawayC ? undefined : options.cathodicLimitingCurrentDensity,
+      },
+      mayDropLimits,
+    );
     const which = [runawayA ? 'anodic' : '', runawayC ? 'cathodic' : ''].filter(Boolean).join(' and ');
     again.warnings.unshift(
       `The ${which} limiting current could not be fitted: the estimate ran beyond ${LIMIT_RUNAWAY_FACTOR}× the largest measured current, i.e. the data show no mass-transport bending. It was left out; the result is the fit without it (the limit, if any, lies well above the measured range).`,
     );
     return again;
+  }
+  // One-branch data: the reverse-branch α (α_c for anodic-only data, α_a for cathodic-only)
+  // rests only on the low-field points. When the free fit drives it out of the plausible
+  // range (typically to 0 or ∞, where the model stops depending on it and its column of the
+  // Jacobian vanishes) or it is not identifiable, it is not determined by these data: hold
+  // it by a stated assumption and refit, rather than report an arbitrary value with
+  // conditional intervals.
+  const reverse = reverseAlphaIndex(nA, nC, iAa, iAc);
+  if (reverse !== null) {
+    const k = reverse.index;
+    const value = Math.exp(theta[k]);
+    const outside = value < ALPHA_PLAUSIBLE[0] || value > ALPHA_PLAUSIBLE[1];
+    if (outside || fit.aliased[k] || fit.status === 'failed:singular') {
+      const mainAlpha = reverse.name === 'α_c' ? fixedAa ?? Math.exp(theta[iAa]) : fixedAc ?? Math.exp(theta[iAc]);
+      const side = reverse.name === 'α_c' ? 'anodic' : 'cathodic';
+      const why = !outside
+        ? 'the free fit could not separate it from the other parameters'
+        : value < ALPHA_PLAUSIBLE[0]
+          ? `the free fit drove it towards 0, below the plausible range ${ALPHA_PLAUSIBLE[0]}–${ALPHA_PLAUSIBLE[1]}`
+          : `the free fit drove it towards infinity, above the plausible range ${ALPHA_PLAUSIBLE[0]}–${ALPHA_PLAUSIBLE[1]}`;
+      // First hold that converges wins, trying every hold with the model as asked before any
+      // with a limiting current dropped; otherwise the first is reported (not converged, with
+      // its warnings).
+      const holds = reverseAlphaHolds(reverse.name, value, electrons, mainAlpha);
+      const tries = [...holds.map((h) => ({ ...h, drop: false })), ...(mayDropLimits && (iLa >= 0 || iLc >= 0) ? holds.map((h) => ({ ...h, drop: true })) : [])];
+      let chosen: { result: ButlerVolmerFitResult; text: string } | null = null;
+      for (const hold of tries) {
+        const again = fitButlerVolmerWith(points, { ...options, ...hold.options }, hold.drop);
+        if (chosen === null || (again.converged && !chosen.result.converged)) chosen = { result: again, text: hold.text };
+        if (again.converged) break;
+      }
+      const again = (chosen as { result: ButlerVolmerFitResult; text: string }).result;
+      again.warnings.unshift(
+        `${reverse.name} could not be determined from these data: all fitted points are ${side} and ${why} (the low-field points do not resolve the reverse reaction). The fit was repeated with ${(chosen as { text: string }).text}; j0 depends on this assumption, so fix ${reverse.name} instead if it is known.`,
+      );
+      return again;
+    }
+  }
+  // A fit with a fitted limiting current that did not converge (typically creeping along the
+  // valley where the limit and R_u trade off): the limit is not determined by these data.
+  // Refit without it; keep the result only if that fit converges.
+  if (mayDropLimits && !fit.converged && (iLa >= 0 || iLc >= 0)) {
+    const again = fitButlerVolmerWith(
+      points,
+      {
+        ...options,
+        anodicLimitingCurrentDensity: iLa >= 0 ? undefined : options.anodicLimitingCurrentDensity,
+        cathodicLimitingCurrentDensity: iLc >= 0 ? undefined : options.cathodicLimitingCurrentDensity,
+      },
+      true,
+    );
+    if (again.converged) {
+      const which = [iLa >= 0 ? 'anodic' : '', iLc >= 0 ? 'cathodic' : ''].filter(Boolean).join(' and ');
+      again.warnings.unshift(
+        `The ${which} limiting current could not be fitted: the fit with it did not converge (${fit.status}), i.e. these data do not determine it. It was left out; the result is the fit without it. If the data do bend at high current, give the limit from a separate measurement.`,
+      );
+      return again;
+    }
   }
   const u = layout.unpack(theta);
   const dof = fit.degreesOfFreedom;
@@ -415,11 +507,13 @@ export function fitButlerVolmer(points: PolarizationPoint[], options: ButlerVolm
   const mainBranch: Branch = options.branch ?? (nC > nA ? 'cathodic' : 'anodic');
   params.tafelSlope = { ...(mainBranch === 'anodic' ? params.anodicTafelSlope : params.cathodicTafelSlope) };
   params.tafelSlope.note = options.branch ? `${mainBranch} branch (as requested)` : `${mainBranch} branch (the one with more fitted points)`;
+  const profileOf = (k: number): ProfileEnds | null =>
+    fit.converged && seOf(k) !== null ? profileInterval(model, theta, k, fit.rss, dof, t, seOf(k) as number) : null;
   if (iLa >= 0) {
-    params.anodicLimitingCurrentDensity = mappedParameter(theta[iLa], seOf(iLa), t, (p) => jMaxA * (1 + Math.exp(p)), jMaxA * Math.exp(theta[iLa]), 'A/m²', 'j_lim = j_max·(1 + e^φ); interval mapped from φ (asymmetric)');
+    params.anodicLimitingCurrentDensity = limitParameter(theta[iLa], seOf(iLa), t, jMaxA, profileOf(iLa), 'anodic', warnings);
   } else if (typeof limA === 'number') params.anodicLimitingCurrentDensity = fixedParameter(limA, 'A/m²');
   if (iLc >= 0) {
-    params.cathodicLimitingCurrentDensity = mappedParameter(theta[iLc], seOf(iLc), t, (p) => jMaxC * (1 + Math.exp(p)), jMaxC * Math.exp(theta[iLc]), 'A/m²', 'magnitude; j_lim = j_max·(1 + e^φ); interval mapped from φ (asymmetric)');
+    params.cathodicLimitingCurrentDensity = limitParameter(theta[iLc], seOf(iLc), t, jMaxC, profileOf(iLc), 'cathodic', warnings);
   } else if (typeof limC === 'number') params.cathodicLimitingCurrentDensity = fixedParameter(limC, 'A/m²', 'magnitude; fixed by the user, not fitted');
   if (iRu >= 0) params.uncompensatedResistance = symmetricParameter(theta[iRu], seOf(iRu), dof, 'Ω·m²');
   else if (typeof ruOpt === 'number' && ruOpt > 0) params.uncompensatedResistance = fixedParameter(ruOpt, 'Ω·m²', 'known value, included as j·R_u');
@@ -528,6 +622,163 @@ export function fitButlerVolmer(points: PolarizationPoint[], options: ButlerVolm
     evaluations: fit.evaluations,
     warnings,
   };
+}
+
+/** Ends of a profile-likelihood interval on φ; an end is null when the data do not bound it. */
+interface ProfileEnds {
+  low: number | null;
+  high: number | null;
+}
+
+/**
+ * 95 % profile-likelihood interval of parameter k (θ_k = φ of a fitted limiting current):
+ * the set of φ whose profile residual sum of squares, minimised over all other parameters
+ * with φ held, stays within RSS(φ) ≤ RSS_min·(1 + t²/dof), t = t_{0.975, dof} (the
+ * F-based likelihood interval for one parameter of a least-squares fit). Each end is
+ * bracketed by doubling steps from the estimate (first step 2·SE, at least 0.25) and refined
+ * by regula falsi (Illinois variant). The upper end is open (null) when it is not reached
+ * by φ = PHI_RUNAWAY (j_lim = 100·j_max); the lower end is open when not reached by
+ * PROFILE_PHI_LOW. Returns null when a profile fit cannot be evaluated.
+ * Profile fits reuse the model's analytic Jacobian (already checked against differences at
+ * the main solution), so their own end-of-fit check is skipped for speed.
+ * Source: profile t / likelihood intervals, D. M. Bates and D. G. Watts, Nonlinear Regression
+ * Analysis and Its Applications, Wiley (1988), ch. 6 (from memory); Illinois regula falsi,
+ * Dowell & Jarratt, BIT 11 (1971) 168–174 (from memory).
+ */
+function profileInterval(model: BvResidualModel, thetaHat: number[], k: number, rssMin: number, dof: number, t: number, seK: number): ProfileEnds | null {
+  if (!(dof > 0) || !(rssMin > 0)) return null;
+  const target = rssMin * (1 + (t * t) / dof);
+  const reduced = (value: number, warm: number[]): { rss: number; theta: number[] } | null => {
+    const expand = (q: number[]) => {
+      const th = q.slice();
+      th.splice(k, 0, value);
+      return th;
+    };
+    try {
+      const r = levenbergMarquardt(
+        {
+          residuals: (q) => model.residuals(expand(q)),
+          jacobian: (q) => model.jacobian(expand(q)).map((row) => row.filter((_, i) => i !== k)),
+          start: warm.filter((_, i) => i !== k),
+        },
+        { checkJacobian: false },
+      );
+      return Number.isFinite(r.rss) ? { rss: r.rss, theta: expand(r.parameters) } : null;
+    } catch {
+      return null;
+    }
+  };
+  const end = (dir: 1 | -1): number | null | undefined => {
+    const limit = dir > 0 ? PHI_RUNAWAY : PROFILE_PHI_LOW;
+    let a = thetaHat[k];
+    let ga = rssMin - target;
+    let warm = thetaHat;
+    let step = Math.max(2 * seK, 0.25);
+    for (let i = 0; i < PROFILE_MAX_BRACKET_STEPS; i++) {
+      if (dir * (a - limit) >= 0) return null;
+      const b = dir > 0 ? Math.min(a + step, limit) : Math.max(a - step, limit);
+      const rb = reduced(b, warm);
+      if (rb === null) return undefined;
+      const gb = rb.rss - target;
+      if (gb >= 0) {
+        // Bracket [a, b] with g(a) < 0 ≤ g(b): Illinois regula falsi.
+        let lo = a;
+        let glo = ga;
+        let hi = b;
+        let ghi = gb;
+        let side = 0;
+        let w = rb.theta;
+        for (let j = 0; j < PROFILE_MAX_REFINE_STEPS && Math.abs(hi - lo) > PROFILE_PHI_TOLERANCE; j++) {
+          const c = (lo * ghi - hi * glo) / (ghi - glo);
+          const rc = reduced(c, w);
+          if (rc === null) return undefined;
+          const gc = rc.rss - target;
+          w = rc.theta;
+          if (gc >= 0) {
+            hi = c;
+            ghi = gc;
+            if (side === 1) glo /= 2;
+            side = 1;
+          } else {
+            lo = c;
+            glo = gc;
+            if (side === -1) ghi /= 2;
+            side = -1;
+          }
+        }
+        return (lo * ghi - hi * glo) / (ghi - glo);
+      }
+      a = b;
+      ga = gb;
+      warm = rb.theta;
+      step *= 2;
+    }
+    return null;
+  };
+  const high = end(1);
+  const low = end(-1);
+  if (high === undefined || low === undefined) return null;
+  return { low, high };
+}
+
+/**
+ * Fitted limiting current j_lim = j_max·(1 + e^φ) [A/m²]: SE by the delta method; the 95 %
+ * interval from the profile likelihood when available (a weakly determined limit has a
+ * very skewed likelihood that the linearised interval misrepresents), else mapped from
+ * the linearised interval on φ. An open upper end gives ci95 null and a warning with the
+ * lower bound the data do support; an open lower end is j_max (the limit must exceed it).
+ */
+function limitParameter(phi: number, se: number | null, t: number, jMax: number, profile: ProfileEnds | null, branch: Branch, warnings: string[]): FittedParameter {
+  const g = (p: number) => jMax * (1 + Math.exp(p));
+  const magnitude = branch === 'cathodic' ? 'magnitude; ' : '';
+  if (profile === null) {
+    return mappedParameter(phi, se, t, g, jMax * Math.exp(phi), 'A/m²', `${magnitude}j_lim = j_max·(1 + e^φ); interval mapped from the linearised interval on φ (asymmetric)`);
+  }
+  const out = mappedParameter(phi, se, t, g, jMax * Math.exp(phi), 'A/m²', `${magnitude}j_lim = j_max·(1 + e^φ); 95 % profile-likelihood interval`);
+  const low = profile.low === null ? jMax : g(profile.low);
+  if (profile.high === null) {
+    out.ci95 = null;
+    warnings.push(
+      `The ${branch} limiting current has no upper bound at 95 % confidence: the data are about as well described without mass-transport bending (j_lim ≥ ${(LIMIT_RUNAWAY_FACTOR * jMax).toPrecision(3)} A/m² cannot be excluded). They support only j_lim > ${low.toPrecision(3)} A/m²; treat the value ${g(phi).toPrecision(3)} A/m² as indicative.`,
+    );
+  } else out.ci95 = [low, g(profile.high)];
+  return out;
+}
+
+/** Index and name of the free reverse-branch transfer coefficient on one-branch data, else null. */
+function reverseAlphaIndex(nA: number, nC: number, iAa: number, iAc: number): { index: number; name: 'α_a' | 'α_c' } | null {
+  if (nC === 0 && nA > 0 && iAc >= 0) return { index: iAc, name: 'α_c' };
+  if (nA === 0 && nC > 0 && iAa >= 0) return { index: iAa, name: 'α_a' };
+  return null;
+}
+
+/**
+ * How to hold an undetermined reverse-branch α on one-branch data (see fitButlerVolmer), in
+ * order of preference: with n known and the main-branch α below n, the single-step relation
+ * α_a + α_c = n (IUPAC 2014: valid for one rate-determining step; the relation the fit already
+ * suggests to users); then α fixed at the edge of the plausible range it ran towards (for an
+ * α still inside the range, at its value).
+ */
+function reverseAlphaHolds(
+  name: 'α_a' | 'α_c',
+  value: number,
+  electrons: number | undefined,
+  mainAlpha: number,
+): { options: Partial<ButlerVolmerFitOptions>; text: string }[] {
+  const holds: { options: Partial<ButlerVolmerFitOptions>; text: string }[] = [];
+  if (electrons !== undefined && mainAlpha < electrons) {
+    holds.push({ options: { tieTransferCoefficients: true }, text: `α_a + α_c = n = ${electrons} (the single-step relation, IUPAC 2014; it holds for one rate-determining step)` });
+  }
+  const edge = value < ALPHA_PLAUSIBLE[0] ? ALPHA_PLAUSIBLE[0] : value > ALPHA_PLAUSIBLE[1] ? ALPHA_PLAUSIBLE[1] : value;
+  const key = name === 'α_c' ? 'cathodicTransferCoefficient' : 'anodicTransferCoefficient';
+  const reason =
+    electrons === undefined
+      ? 'no electron number n was given to tie α_a + α_c = n'
+      : mainAlpha < electrons
+        ? 'the fit tied by α_a + α_c = n did not converge'
+        : `the main-branch α ≥ n = ${electrons} rules out the tie α_a + α_c = n`;
+  holds.push({ options: { [key]: edge }, text: `${name} held at ${edge.toPrecision(3)} (${reason})` });
+  return holds;
 }
 
 function checkAlpha(v: unknown, path: string): number | undefined {

@@ -17,8 +17,10 @@
  * - Non-finite trial residuals are treated as a failed step (ρ < 0) so Δ shrinks by 10;
  *   if the radius collapses while trials are still non-finite → 'failed:non-finite'.
  * - Honesty checks at the returned point, where the Jacobian is re-evaluated:
- *   (a) an analytic Jacobian is compared with central differences → 'failed:bad-jacobian'
- *   on clear disagreement; (b) if the scaled gradient is not small, the sum of squares is
+ *   (a) an analytic Jacobian is compared with Richardson-extrapolated central differences,
+ *   allowing for their own estimated error → 'failed:bad-jacobian' on clear disagreement
+ *   (a flat column that finite differences cannot resolve earns a warning instead);
+ *   (b) if the scaled gradient is not small, the sum of squares is
  *   probed along the scaled steepest-descent direction: a decrease as predicted by the
  *   linearisation → 'failed:not-stationary', otherwise the gradient is rounding noise (a
  *   warning says so); (c) a rank-deficient J → 'failed:singular' (not identifiable).
@@ -77,6 +79,14 @@ const FD_RANK_FACTOR = 10;
  * so 1e-2 only fires on real derivative errors).
  */
 const JACOBIAN_CHECK_RTOL = 1e-2;
+/**
+ * Multiple of the estimated error of the finite-difference reference added to the
+ * tolerance of the Jacobian check (project choice: the estimate, see
+ * compareWithFiniteDifferences, over-states the truncation error of the reference and is of
+ * the size of its rounding noise, so a factor 2 covers both with margin while a real
+ * derivative error, which all the differences share, still stands out).
+ */
+const JACOBIAN_CHECK_FD_ERROR_FACTOR = 2;
 /**
  * Step fractions α of the linear-model optimum tried by the stationarity probe, largest
  * first (project choice: small enough that the linearisation holds, several so that a
@@ -233,22 +243,109 @@ export function levenbergMarquardt(problem: NonlinearProblem, options: Nonlinear
   const fdJacobian = (xv: Float64Array, fv: Float64Array, out: Float64Array): boolean => fdJacobianMode(xv, fv, out, fdMode);
 
   /**
-   * Compare the analytic Jacobian (in fjac, at xv) with central differences. A column is
-   * flagged when ‖J_a − J_fd‖ > JACOBIAN_CHECK_RTOL·max(‖J_a‖, ‖J_fd‖). Non-finite
-   * difference quotients skip the check.
+   * Difference quotient of column j at xv with step mult·h_j (h_j as in fdJacobianMode, the
+   * step made exactly representable) into out[0..m): central when the residuals are finite on
+   * both sides, else one-sided from fv (the residuals at xv) on the finite side. Returns the
+   * kind used, or false when neither side is finite.
    */
-  const compareWithFiniteDifferences = (xv: Float64Array, fv: Float64Array): { index: number; relDiff: number }[] => {
-    const fd = new Float64Array(m * n);
-    if (!fdJacobianMode(xv, fv, fd, 'central')) return [];
-    const bad: { index: number; relDiff: number }[] = [];
-    const diff = new Float64Array(m);
-    for (let j = 0; j < n; j++) {
-      for (let i = 0; i < m; i++) diff[i] = fjac[i + j * m] - fd[i + j * m];
-      const ref = Math.max(scaledNorm(fjac, j * m, m), scaledNorm(fd, j * m, m));
-      const d = scaledNorm(diff, 0, m);
-      if (ref > 0 && d > JACOBIAN_CHECK_RTOL * ref) bad.push({ index: j, relDiff: d / ref });
+  const differenceColumn = (xv: Float64Array, fv: Float64Array, j: number, mult: number, out: Float64Array): 'central' | 'one-sided' | false => {
+    for (let k = 0; k < n; k++) xWork[k] = xv[k];
+    const xj = xv[j];
+    const typical = Math.abs(xj) > 0 ? Math.abs(xj) : Math.abs(start[j]) > 0 ? Math.abs(start[j]) * ZERO_PARAMETER_STEP_FRACTION : 1;
+    const h = xj + mult * CENTRAL_STEP * Math.max(Math.abs(xj), typical) - xj;
+    xWork[j] = xj + h;
+    const fp = evaluate(xWork, fPlus);
+    xWork[j] = xj - h;
+    const fm = evaluate(xWork, fMinus);
+    xWork[j] = xj;
+    if (fp && fm) {
+      for (let i = 0; i < m; i++) out[i] = (fp[i] - fm[i]) / (2 * h);
+      return 'central';
     }
-    return bad;
+    if (fp) for (let i = 0; i < m; i++) out[i] = (fp[i] - fv[i]) / h;
+    else if (fm) for (let i = 0; i < m; i++) out[i] = (fv[i] - fm[i]) / h;
+    else return false;
+    return 'one-sided';
+  };
+
+  /**
+   * Compare the analytic Jacobian (in fjac, at xv) with central differences, fairly: the
+   * reference is only as good as the differences themselves, so its own error is estimated
+   * and allowed for.
+   * - Central differences D(h), D(h/2), D(h/4) per column (h as in fdJacobianMode; the
+   *   smaller steps matter where the model is stiff on the scale of h, e.g. near a pole or a
+   *   wall, and cost only a factor 4 in rounding noise, ~ε^{2/3}·4 relative).
+   * - Reference: R₁ = (4·D(h/4) − D(h/2))/3, the Richardson extrapolation of the two finest
+   *   (truncation O(h⁴) instead of O(h²)).
+   * - Error estimate E = ‖R₁ − R₂‖ with R₂ = (4·D(h/2) − D(h))/3: for a smooth model this is
+   *   ≈ 15× the truncation error of R₁ (so it over-states it), and where rounding dominates
+   *   (a flat direction, residuals at the float64 floor) R₁ and R₂ carry independent noise
+   *   of R₁'s own size.
+   * - Column j is flagged when ‖J_a − R₁‖ > JACOBIAN_CHECK_RTOL·max(‖J_a‖, ‖R₁‖) +
+   *   JACOBIAN_CHECK_FD_ERROR_FACTOR·E. A wrong derivative differs from all the differences
+   *   alike and is still caught.
+   * - A column where no residual changes at all (to the last bit) under any of the steps
+   *   cannot be checked: the direction is flat at float64 resolution (e.g. a parameter driven
+   *   to a limit where the model no longer depends on it). It is returned in `unresolved`,
+   *   not as a disagreement.
+   * Fallbacks when residuals are not finite on one side of a step (a parameter at the edge
+   *   of the model's domain): one-sided differences; Richardson is then not used, the
+   *   reference is the finest difference and E = ‖D(h/2) − D(h/4)‖ (≈ its O(h) truncation
+   *   error). When not even D(h/2) is available, the reference is D(h) with no error
+   *   allowance; when no difference is finite the column is skipped.
+   * Source: Richardson extrapolation of central differences and the step-halving error
+   * estimate are textbook numerical analysis (e.g. Nocedal & Wright §8.1, from memory);
+   * their use as a fair reference for this check is our own choice.
+   */
+  const compareWithFiniteDifferences = (xv: Float64Array, fv: Float64Array): { bad: { index: number; relDiff: number }[]; unresolved: number[] } => {
+    const bad: { index: number; relDiff: number }[] = [];
+    const unresolved: number[] = [];
+    const d1 = new Float64Array(m); // D(h)
+    const d2 = new Float64Array(m); // D(h/2)
+    const d4 = new Float64Array(m); // D(h/4)
+    const ref = new Float64Array(m);
+    const diff = new Float64Array(m);
+    const est = new Float64Array(m);
+    for (let j = 0; j < n; j++) {
+      const k1 = differenceColumn(xv, fv, j, 1, d1);
+      if (!k1) continue;
+      const k2 = differenceColumn(xv, fv, j, 0.5, d2);
+      const k4 = k2 ? differenceColumn(xv, fv, j, 0.25, d4) : false;
+      const richardson = k1 === 'central' && k2 === 'central' && k4 === 'central';
+      let allZero = true;
+      for (let i = 0; i < m; i++) {
+        if (d1[i] !== 0 || (k2 && d2[i] !== 0) || (k4 && d4[i] !== 0)) allZero = false;
+        let fine: number;
+        let error: number;
+        if (richardson) {
+          const coarse = (4 * d2[i] - d1[i]) / 3;
+          fine = (4 * d4[i] - d2[i]) / 3;
+          error = fine - coarse;
+        } else if (k4) {
+          fine = d4[i];
+          error = d2[i] - d4[i];
+        } else if (k2) {
+          fine = d2[i];
+          error = d1[i] - d2[i];
+        } else {
+          fine = d1[i];
+          error = 0;
+        }
+        ref[i] = fine;
+        est[i] = error;
+        diff[i] = fjac[i + j * m] - fine;
+      }
+      const normA = scaledNorm(fjac, j * m, m);
+      if (allZero) {
+        if (normA > 0) unresolved.push(j);
+        continue;
+      }
+      const scale = Math.max(normA, scaledNorm(ref, 0, m));
+      const d = scaledNorm(diff, 0, m);
+      const tol = JACOBIAN_CHECK_RTOL * scale + JACOBIAN_CHECK_FD_ERROR_FACTOR * scaledNorm(est, 0, m);
+      if (scale > 0 && d > tol) bad.push({ index: j, relDiff: d / scale });
+    }
+    return { bad, unresolved };
   };
 
   /**
@@ -498,7 +595,13 @@ export function levenbergMarquardt(problem: NonlinearProblem, options: Nonlinear
     // 1. Analytic Jacobian against central differences (a wrong derivative silently
     //    corrupts the covariance and can stall the iteration).
     if (analytic && (options.checkJacobian ?? true)) {
-      const bad = compareWithFiniteDifferences(x, fvec);
+      const { bad, unresolved } = compareWithFiniteDifferences(x, fvec);
+      if (unresolved.length > 0) {
+        const list = unresolved.map((j) => `p[${j}]`).join(', ');
+        warnings.push(
+          `The analytic derivative for ${list} could not be checked: the residuals do not change at float64 resolution under finite-difference steps (a flat direction: the parameter has (almost) no effect at the solution).`,
+        );
+      }
       if (bad.length > 0) {
         const list = bad.map((b) => `p[${b.index}] (relative difference ${b.relDiff.toExponential(1)})`).join(', ');
         warnings.push(`The analytic Jacobian disagrees with central finite differences for ${list}.`);

@@ -103,7 +103,7 @@ export interface NonlinearOptions {
   sigmaMode?: SigmaMode;
   /**
    * Compare an analytic Jacobian with central differences at the solution (default true;
-   * costs 2p residual evaluations). A clear disagreement gives status 'failed:bad-jacobian'.
+   * costs up to 6p residual evaluations: Richardson-extrapolated central differences). A clear disagreement gives status 'failed:bad-jacobian'.
    */
   checkJacobian?: boolean;
   /** Initial trust-region radius as a multiple of ‖D·x₀‖ (MINPACK "factor", default 100). */
