@@ -9,7 +9,7 @@
  * Units: n/a. Validity: R upper triangular n×n from a pivoted QR; zero diagonal entries
  * (rank deficiency) are handled by least-squares back substitution.
  * Sources: J. J. Moré, "The Levenberg–Marquardt algorithm: implementation and theory",
- * Lecture Notes in Mathematics 630 (1978) 105–116, §§3–5; J. J. Moré, B. S. Garbow,
+ * Springer LNM 630 (1978) 105–116, §§3–5; J. J. Moré, B. S. Garbow,
  * K. E. Hillstrom, User Guide for MINPACK-1, ANL-80-74 (1980) (lmpar, qrsolv).
  * Constants 0.1 (relative accuracy of ‖D·s‖ = Δ), 0.001·paru and 10 iterations are those
  * of Moré (1978) / MINPACK.

@@ -31,7 +31,7 @@
  * Validity: n ≥ p residuals, smooth r(p); the result is a local minimum nearest (in the
  * algorithm's sense) to the start; the covariance is the usual linearised estimate.
  * Sources: J. J. Moré, "The Levenberg–Marquardt algorithm: implementation and theory",
- * in Numerical Analysis (Dundee 1977), Lecture Notes in Mathematics 630, Springer (1978)
+ * in Numerical Analysis (Dundee 1977), Springer LNM 630, Springer (1978)
  * 105–116; J. J. Moré, B. S. Garbow, K. E. Hillstrom, User Guide for MINPACK-1,
  * Argonne ANL-80-74 (1980); J. Nocedal and S. J. Wright, Numerical Optimization, 2nd ed.,
  * Springer (2006): LM as a trust-region method (ch. 10) and finite-difference step sizes
