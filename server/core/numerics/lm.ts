@@ -623,7 +623,7 @@ export function levenbergMarquardt(problem: NonlinearProblem, options: Nonlinear
         message = `The steps stalled (${message}) but the sum of squares still decreases along the gradient at the returned point (scaled gradient ${gradientCosine.toExponential(2)}): it is not a minimum.`;
       } else {
         warnings.push(
-          `The scaled gradient at the solution (${gradientCosine.toExponential(2)}) is at the rounding-noise level of the residuals: the fit is as close as float64 evaluation of the model allows, and the RSS and standard errors may carry few significant digits.`,
+          `The scaled gradient at the solution (${gradientCosine.toExponential(2)}) is at the rounding-noise level of the residuals: no further decrease of the cost could be found, so the fit is as close as the model evaluation and float64 parameters allow; when the residuals are tiny, the RSS and standard errors may carry fewer significant digits.`,
         );
       }
     }
