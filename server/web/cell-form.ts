@@ -10,8 +10,9 @@
  *    potentials turned into overpotentials with the dataset's equilibrium potential);
  *  - a kinetic fit saved in the study;
  *  - parameters entered by hand.
- * The fitted parameters' standard errors and correlation become the definition's
- * `kinetics.uncertainty` (ln j0, α of the working branch), which drives the Monte Carlo band.
+ * The kinetics core's working-branch uncertainty of a fit (standard errors of ln j0 and α and
+ * their correlation, KineticsFitResult.workingBranchUncertainty) becomes the definition's
+ * `kinetics.uncertainty`, which drives the Monte Carlo band.
  *
  * Errors name form fields (e.g. `anode.j0`, `gap2.voidFraction`); `formFieldForPath` maps the
  * core's definition paths (e.g. `ohmic.gaps[1].voidFraction`) back to them.
@@ -19,7 +20,14 @@
 import { Decimal } from 'decimal.js';
 import { thermalVoltage, ZERO_CELSIUS_K } from '../core/constants.js';
 import { InputError, PhysicsError, type IssueDetail } from '../core/errors.js';
-import { fitKinetics, type KineticsFitResult } from '../core/kinetics/index.js';
+import {
+  fitKinetics,
+  WORKING_BRANCH_LN_J0,
+  workingTransferCoefficientKey,
+  type Branch,
+  type KineticsFitResult,
+  type WorkingBranchUncertainty,
+} from '../core/kinetics/index.js';
 import { massFractionToMolality, molalityToMassFraction } from '../core/thermo/concentration.js';
 import { UNIT_TABLES, type Quantity } from '../core/units.js';
 import type {
@@ -536,137 +544,123 @@ function clampCorrelation(r: number): number {
   return Math.max(-1, Math.min(1, r));
 }
 
-/**
- * Standard errors and correlation of (ln j0, α) of a Tafel line η = a + b·ln|j| from the line's
- * statistics, by the delta method (first-order propagation, JCGM 100:2008 §5.1):
- *   ln j0 = −a/b, gradient (−1/b, a/b²);   α = RT/(bF) = 1/(f·b), gradient (0, −1/(f·b²)).
- * Inputs: b [V per e-fold], SE(b), SE(ln j0) (as the fit reports it), corr(a, b) = ρ, and
- * ln j0. SE(a) is not stored with a saved fit; it is recovered from
- *   Var(ln j0) = σa²/b² + a²σb²/b⁴ − 2aρσaσb/b³,
- * a quadratic in σa. Of its two roots the one is taken for which the window's mean
- * overpotential ȳ = a − bρσa/σb (the fit's centroid, since ρσa/σb = −x̄) is positive: a Tafel
- * window lies at |η| > 0. Then
- *   corr(ln j0, α) = −corr(ln j0, b) = (ρσa/b − aσb/b²)/SE(ln j0).
- * Returns undefined when the statistics do not determine the pair (non-positive SEs, no real root).
- */
-export function tafelLineUncertainty(input: {
-  slopePerEFold: number;
-  slopeSE: number;
-  lnJ0: number;
-  lnJ0SE: number;
-  rhoAB: number;
-  alpha: number;
-  alphaSE: number;
-}): KineticUncertainty | undefined {
-  const { slopePerEFold: b, slopeSE: sb, lnJ0, lnJ0SE: sL, rhoAB: rho, alphaSE } = input;
-  if (!(b > 0 && sb > 0 && sL > 0 && Number.isFinite(rho) && alphaSE >= 0)) return undefined;
-  const a = -b * lnJ0;
-  const centre = (a * rho * sb) / b;
-  const disc = sL * sL * b * b - (a * a * sb * sb * (1 - rho * rho)) / (b * b);
-  if (!(disc >= 0)) return undefined;
-  const root = Math.sqrt(disc);
-  const candidates = [centre + root, centre - root].filter((s) => s > 0);
-  const meanEta = (sa: number) => a - (b * rho * sa) / sb;
-  const sa = candidates.sort((x, y) => meanEta(y) - meanEta(x))[0];
-  if (sa === undefined || !(meanEta(sa) > 0)) return undefined;
-  const corr = ((rho * sa) / b - (a * sb) / (b * b)) / sL;
-  if (!Number.isFinite(corr)) return undefined;
-  return { lnExchangeCurrentDensitySE: sL, transferCoefficientSE: alphaSE, correlation: clampCorrelation(corr) };
-}
-
 function seOf(p: ParameterLike | undefined): number | undefined {
   const s = p?.standardError;
   return typeof s === 'number' && Number.isFinite(s) && s >= 0 ? s : undefined;
 }
 
+/** The working branch of an electrode: the anode works anodic, the cathode cathodic. */
+function workingBranch(role: ElectrodeRole): Branch {
+  return role === 'anode' ? 'anodic' : 'cathodic';
+}
+
 /**
- * Definition kinetics from a fit's parameters (fitKinetics result or a saved fit: same keys),
- * at the fit temperature `temperatureK` (becomes `referenceTemperature`). The working branch is
- * the electrode's (anode anodic, cathode cathodic). Uncertainty: SE(ln j0) = SE(j0)/j0 (as the
- * kinetics core reports j0's SE, delta method); α's SE as fitted; their correlation from the
- * fit's correlation matrix (Tafel: via tafelLineUncertainty; Butler–Volmer: the fit works in
- * ln j0 and ln α or logit(α/n), monotone maps of which keep the first-order correlation).
+ * The electrode's KineticUncertainty from a fit. No statistics are done here: the kinetics
+ * core computes corr(ln j0, α) of the working branch (KineticsFitResult.workingBranchUncertainty,
+ * delta method from the fit covariance), and this only picks it up:
+ *  1. a fit result (on-the-fly fit) carrying `workingBranchUncertainty` for the electrode's
+ *     working branch: its SEs and correlation as they are;
+ *  2. a saved fit whose correlation record names [lnExchangeCurrentDensity, <working α key>]:
+ *     the correlation from the record, SE(ln j0) = SE(j0)/j0 (the core reports SE(j0) by the
+ *     delta method from SE(ln j0), so this is exact) and SE(α) of the saved parameter;
+ *  3. a saved Butler–Volmer fit from before that record (names 'ln j0', 'ln α_a', 'ln α_c' or
+ *     'logit(α_a/n)'): the fitted parameters map monotonically onto (ln j0, α), so their
+ *     correlation is that of the pair to first order (sign flipped for a tied α_c = n − α_a);
+ *     a held α carries no variance (correlation 0).
+ * A saved Tafel fit from before the record (correlation of the line parameters a, b) does
+ * not determine corr(ln j0, α) without SE(a), which was not saved: it adds no uncertainty and
+ * the returned message says to save the fit again. Returns the uncertainty or a reason.
  */
-export function kineticsFromFit(
-  fit: {
-    model: 'tafel' | 'butler-volmer';
-    parameters: Record<string, ParameterLike | undefined>;
-    correlation?: { names: string[]; matrix: number[][] } | undefined;
-  },
+function fitUncertainty(
+  fit: KineticsFitLike,
   role: ElectrodeRole,
-  temperatureK: number,
+  j0: number,
   label: string,
-): FitKinetics {
-  const warnings: string[] = [];
-  const p = fit.parameters;
-  const j0 = p.exchangeCurrentDensity?.value;
-  if (!(typeof j0 === 'number' && j0 > 0 && Number.isFinite(j0))) {
-    throw new InputError(`${role}.${label}`, 'the fit has no positive exchange current density');
+): { uncertainty: KineticUncertainty } | { reason: string } {
+  const missing = { reason: `${label}: the fit's standard errors or correlation are missing, so it adds no uncertainty to the band.` };
+  const u = fit.workingBranchUncertainty;
+  if (u && u.branch === workingBranch(role)) {
+    return { uncertainty: { lnExchangeCurrentDensitySE: u.lnExchangeCurrentDensitySE, transferCoefficientSE: u.transferCoefficientSE, correlation: clampCorrelation(u.correlation) } };
   }
+  const p = fit.parameters;
   const seJ0 = seOf(p.exchangeCurrentDensity);
   const lnJ0SE = seJ0 === undefined ? undefined : seJ0 / j0;
+  const alphaKey = workingTransferCoefficientKey(fit.model, workingBranch(role));
+  const alphaSE = seOf(p[alphaKey]);
   const names = fit.correlation?.names ?? [];
   const matrix = fit.correlation?.matrix ?? [];
   const corrAt = (i: number, k: number): number | undefined => {
     const v = matrix[i]?.[k];
     return typeof v === 'number' && Number.isFinite(v) ? v : undefined;
   };
-
-  if (fit.model === 'tafel') {
-    const alpha = p.transferCoefficient?.value;
-    const slope = p.tafelSlope?.value;
-    if (!(typeof alpha === 'number' && alpha > 0)) throw new InputError(`${role}.${label}`, 'the fit has no positive transfer coefficient');
-    const kinetics: ElectrodeKinetics = { model: 'tafel', exchangeCurrentDensity: j0, transferCoefficient: alpha, referenceTemperature: temperatureK };
-    const ia = names.findIndex((n) => /^a\b/.test(n));
-    const ib = names.findIndex((n) => /^b\b/.test(n));
-    const rho = ia >= 0 && ib >= 0 ? corrAt(ia, ib) : undefined;
-    const slopeSE = seOf(p.tafelSlope);
-    const alphaSE = seOf(p.transferCoefficient);
-    if (lnJ0SE !== undefined && alphaSE !== undefined && slopeSE !== undefined && rho !== undefined && typeof slope === 'number' && slope > 0) {
-      const u = tafelLineUncertainty({
-        slopePerEFold: slope / Math.LN10,
-        slopeSE: slopeSE / Math.LN10,
-        lnJ0: Math.log(j0),
-        lnJ0SE,
-        rhoAB: rho,
-        alpha,
-        alphaSE,
-      });
-      if (u) kinetics.uncertainty = u;
+  if (names.length === 2 && names[0] === WORKING_BRANCH_LN_J0) {
+    if (names[1] !== alphaKey) {
+      return { reason: `${label}: its saved correlation is for the transfer coefficient of the other branch, not the ${role}'s, so it adds no uncertainty to the band.` };
     }
-    if (!kinetics.uncertainty) warnings.push(`${label}: the fit's standard errors or correlation are missing, so it adds no uncertainty to the band.`);
-    return { kinetics, warnings };
+    const rho = corrAt(0, 1);
+    if (lnJ0SE === undefined || alphaSE === undefined || rho === undefined) return missing;
+    return { uncertainty: { lnExchangeCurrentDensitySE: lnJ0SE, transferCoefficientSE: alphaSE, correlation: clampCorrelation(rho) } };
   }
-
-  const aa = p.anodicTransferCoefficient?.value;
-  const ac = p.cathodicTransferCoefficient?.value;
-  if (!(typeof aa === 'number' && aa > 0 && typeof ac === 'number' && ac > 0)) {
-    throw new InputError(`${role}.${label}`, 'the Butler–Volmer fit lacks positive transfer coefficients');
+  if (fit.model === 'tafel') {
+    if (names.some((n) => /^a\b/.test(n)) && names.some((n) => /^b\b/.test(n))) {
+      return {
+        reason: `${label}: it was saved with the correlation of the line parameters (a, b), from which corr(ln j0, α) cannot be recovered, so it adds no uncertainty to the band; fit the dataset again on the Kinetics page and save the fit to carry its uncertainty.`,
+      };
+    }
+    return missing;
   }
-  const kinetics: ElectrodeKinetics = {
-    model: 'butler-volmer',
-    exchangeCurrentDensity: j0,
-    anodicTransferCoefficient: aa,
-    cathodicTransferCoefficient: ac,
-    referenceTemperature: temperatureK,
-  };
-  const work = role === 'anode' ? p.anodicTransferCoefficient : p.cathodicTransferCoefficient;
-  const alphaSE = seOf(work);
+  // Saved Butler–Volmer fit from before the working-branch record.
   const iL = names.findIndex((n) => /ln j0/.test(n));
   const own = names.findIndex((n) => n.includes(role === 'anode' ? 'α_a' : 'α_c'));
   const other = names.findIndex((n) => n.includes(role === 'anode' ? 'α_c' : 'α_a'));
   let corr: number | undefined;
   if (iL >= 0 && own >= 0) corr = corrAt(iL, own);
   else if (iL >= 0 && other >= 0) {
-    // Tied coefficients (α_a + α_c = n): the working α moves opposite to the fitted one.
     const c = corrAt(iL, other);
     corr = c === undefined ? undefined : -c;
   } else if (alphaSE === 0 || alphaSE === undefined) corr = 0;
-  if (lnJ0SE !== undefined && corr !== undefined) {
-    kinetics.uncertainty = { lnExchangeCurrentDensitySE: lnJ0SE, transferCoefficientSE: alphaSE ?? 0, correlation: clampCorrelation(corr) };
-  } else {
-    warnings.push(`${label}: the fit's standard errors or correlation are missing, so it adds no uncertainty to the band.`);
+  if (lnJ0SE === undefined || corr === undefined) return missing;
+  return { uncertainty: { lnExchangeCurrentDensitySE: lnJ0SE, transferCoefficientSE: alphaSE ?? 0, correlation: clampCorrelation(corr) } };
+}
+
+/** The parts of a fit (core result or saved fit: same parameter keys) that kineticsFromFit reads. */
+export interface KineticsFitLike {
+  model: 'tafel' | 'butler-volmer';
+  parameters: Record<string, ParameterLike | undefined>;
+  correlation?: { names: string[]; matrix: number[][] } | undefined;
+  /** Present on core fit results (KineticsFitResult.workingBranchUncertainty). */
+  workingBranchUncertainty?: WorkingBranchUncertainty | undefined;
+}
+
+/**
+ * Definition kinetics from a fit's parameters (fitKinetics result or a saved fit: same keys),
+ * at the fit temperature `temperatureK` (becomes `referenceTemperature`). The working branch is
+ * the electrode's (anode anodic, cathode cathodic). Uncertainty: see fitUncertainty (computed
+ * by the kinetics core; read here, not re-derived).
+ */
+export function kineticsFromFit(fit: KineticsFitLike, role: ElectrodeRole, temperatureK: number, label: string): FitKinetics {
+  const warnings: string[] = [];
+  const p = fit.parameters;
+  const j0 = p.exchangeCurrentDensity?.value;
+  if (!(typeof j0 === 'number' && j0 > 0 && Number.isFinite(j0))) {
+    throw new InputError(`${role}.${label}`, 'the fit has no positive exchange current density');
   }
+  let kinetics: ElectrodeKinetics;
+  if (fit.model === 'tafel') {
+    const alpha = p.transferCoefficient?.value;
+    if (!(typeof alpha === 'number' && alpha > 0)) throw new InputError(`${role}.${label}`, 'the fit has no positive transfer coefficient');
+    kinetics = { model: 'tafel', exchangeCurrentDensity: j0, transferCoefficient: alpha, referenceTemperature: temperatureK };
+  } else {
+    const aa = p.anodicTransferCoefficient?.value;
+    const ac = p.cathodicTransferCoefficient?.value;
+    if (!(typeof aa === 'number' && aa > 0 && typeof ac === 'number' && ac > 0)) {
+      throw new InputError(`${role}.${label}`, 'the Butler–Volmer fit lacks positive transfer coefficients');
+    }
+    kinetics = { model: 'butler-volmer', exchangeCurrentDensity: j0, anodicTransferCoefficient: aa, cathodicTransferCoefficient: ac, referenceTemperature: temperatureK };
+  }
+  const u = fitUncertainty(fit, role, j0, label);
+  if ('uncertainty' in u) kinetics.uncertainty = u.uncertainty;
+  else warnings.push(u.reason);
   return { kinetics, warnings };
 }
 

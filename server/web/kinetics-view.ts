@@ -17,6 +17,7 @@ import {
   type ReferenceSpec,
 } from '../core/kinetics/reference-electrodes.js';
 import type { KineticsFitInput } from '../core/kinetics/fit.js';
+import { WORKING_BRANCH_LN_J0, workingTransferCoefficientKey, type WorkingBranchUncertainty } from '../core/kinetics/working-branch.js';
 import type { Dataset, SavedFit, Study } from '../scenario/schema.js';
 import { fmt } from './format.js';
 import { parsePolarizationTable, type ParsedTable } from './table-parse.js';
@@ -530,6 +531,8 @@ export interface FitResultLike {
   };
   window: { minOverpotential: number; maxOverpotential: number; rule: string; automatic?: boolean; decades?: number; lowFieldLimit?: number };
   correlation?: { names: string[]; matrix: number[][] };
+  /** The core's (ln j0, α) uncertainty of the working branch (KineticsFitResult). */
+  workingBranchUncertainty?: WorkingBranchUncertainty;
   residuals: Array<{ currentDensity: number; overpotential: number; fitted: number | null; residual: number | null; used: boolean }>;
   curve: Array<{ currentDensity: number; overpotential: number }>;
   converged: boolean;
@@ -951,7 +954,17 @@ export function savedParameters(result: FitResultLike): SavedFit['parameters'] {
   return out;
 }
 
-/** The saved-fit record written into a study. */
+/**
+ * The saved-fit record written into a study. Its `correlation` is the one the cell model
+ * needs: corr(ln j0, α) of the electrode's working branch, from the kinetics core
+ * (KineticsFitResult.workingBranchUncertainty), as a 2×2 matrix named
+ * [lnExchangeCurrentDensity, key of that α among the parameters] — 'transferCoefficient' for a
+ * Tafel fit, 'anodicTransferCoefficient' / 'cathodicTransferCoefficient' for Butler–Volmer.
+ * The standard errors stay with the saved parameters (SE(ln j0) = SE(j0)/j0). The record is
+ * left out when the core did not determine the pair, or when it belongs to the other branch
+ * (a Butler–Volmer fit whose main branch is not the electrode's); the full parameter
+ * correlation matrix stays on the page and in the JSON download.
+ */
 export function savedFitRecord(result: FitResultLike, opts: { name: string; datasetId?: string; electrode?: 'anode' | 'cathode'; temperature: number }): SavedFit {
   const slug = opts.name.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-+|-+$/g, '').slice(0, 40) || 'fit';
   const electrode: 'anode' | 'cathode' =
@@ -966,8 +979,17 @@ export function savedFitRecord(result: FitResultLike, opts: { name: string; data
     createdAt: new Date().toISOString(),
   };
   if (opts.datasetId) fit.datasetId = opts.datasetId;
-  const c = result.correlation;
-  if (c && c.names.length && c.matrix.every((row) => row.every(Number.isFinite))) fit.correlation = { names: c.names, matrix: c.matrix };
+  const u = result.workingBranchUncertainty;
+  const working = electrode === 'anode' ? 'anodic' : 'cathodic';
+  if (u && u.branch === working && Number.isFinite(u.correlation)) {
+    fit.correlation = {
+      names: [WORKING_BRANCH_LN_J0, workingTransferCoefficientKey(result.model, working)],
+      matrix: [
+        [1, u.correlation],
+        [u.correlation, 1],
+      ],
+    };
+  }
   return fit;
 }
 

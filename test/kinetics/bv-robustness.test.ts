@@ -132,6 +132,67 @@ describe('fitted limiting current: profile-likelihood interval', () => {
   });
 });
 
+describe('profile-likelihood ends across weak and strong bending (accuracy of the root search)', () => {
+  // Each reported end must satisfy the end condition τ = t, τ = √((RSS(end) − RSS_min)/s²),
+  // s² = RSS_min/dof, to the stated accuracy of the search (0.5 % of the half-width in φ;
+  // with τ nearly linear in φ that is |τ/t − 1| ≲ 0.5 %). Independent check: RSS(end) from a
+  // full refit with the limit fixed at the end; t from the Student-t table (NIST/SEMATECH
+  // e-Handbook of Statistical Methods, table 1.3.6.7.2): 32 points − 4 parameters (R_u known)
+  // → dof 28, t_{0.975} = 2.048407; − 5 (R_u fitted) → dof 27, t_{0.975} = 2.051831.
+  const T_TABLE: Record<number, number> = { 28: 2.048407, 27: 2.051831 };
+  const cases: [string, PolarizationPoint[], KineticsFitInput][] = [];
+  let index = 0;
+  for (const electrode of ['anode', 'cathode'] as const) {
+    for (const limitFactor of [1.5, 3, 10]) {
+      for (const [sigma, seed, ruFit] of [
+        [0.0005, 3, true],
+        [0.002, 1, false],
+      ] as const) {
+        index++;
+        const T = index % 2 ? 361.15 : 343.15;
+        const aMain = alphaFromSlope([0.036, 0.06, 0.12][index % 3], T);
+        const jTop = 8000;
+        const s = electrode === 'anode' ? 1 : -1;
+        const p =
+          electrode === 'anode'
+            ? { exchangeCurrentDensity: 3, anodicTransferCoefficient: aMain, cathodicTransferCoefficient: 2 - aMain, anodicLimitingCurrentDensity: limitFactor * jTop }
+            : { exchangeCurrentDensity: 3, cathodicTransferCoefficient: aMain, anodicTransferCoefficient: 2 - aMain, cathodicLimitingCurrentDensity: limitFactor * jTop };
+        const pts = bvPoints([...logSpaced(0, 2.5, 8, -s), ...logSpaced(1, Math.log10(jTop), 24, s)], p, T, { sigma, seed: seed * 100 + index, ru: 8e-6 });
+        const input: KineticsFitInput = { points: pts, model: 'butler-volmer', temperature: T, electrons: 2, uncompensatedResistance: ruFit ? 'fit' : 8e-6 };
+        input[electrode === 'anode' ? 'anodicLimitingCurrentDensity' : 'cathodicLimitingCurrentDensity'] = 'fit';
+        cases.push([`${electrode} limit ${limitFactor}× top, σ = ${sigma * 1000} mV, R_u ${ruFit ? 'fitted' : 'known'}`, pts, input]);
+      }
+    }
+  }
+
+  it.each(cases)('%s', (_label, pts, input) => {
+    const r = fitKinetics(input);
+    expect(r.converged).toBe(true);
+    const key = input.anodicLimitingCurrentDensity === 'fit' ? 'anodicLimitingCurrentDensity' : 'cathodicLimitingCurrentDensity';
+    const lim = r.parameters[key];
+    if (!lim) {
+      expect(r.warnings.some((w) => /limiting current could not be fitted/.test(w))).toBe(true);
+      return;
+    }
+    expect(lim.note).toMatch(/profile-likelihood/);
+    const dof = r.statistics.degreesOfFreedom;
+    const t = T_TABLE[dof];
+    expect(t, `dof ${dof}`).toBeDefined();
+    const rssMin = r.statistics.residualStandardDeviation ** 2 * dof;
+    const jMax = Math.max(...pts.map((q) => Math.abs(q.currentDensity)));
+    const ends = lim.ci95 ?? [];
+    if (!lim.ci95) expect(r.warnings.some((w) => /no upper bound/.test(w))).toBe(true);
+    for (const end of ends) {
+      if (end <= jMax * (1 + 1e-6)) continue; // lower end open: j_max itself
+      const q = fitKinetics({ ...input, [key]: end });
+      expect(q.converged).toBe(true);
+      const rssEnd = q.statistics.residualStandardDeviation ** 2 * q.statistics.degreesOfFreedom;
+      const tau = Math.sqrt(Math.max(0, rssEnd - rssMin) / (rssMin / dof));
+      expectClose(tau / t, 1, { rtol: 5e-3 }, `τ/t at j_lim = ${end}`);
+    }
+  });
+});
+
 /** Warnings that explain why a parameter may miss its interval. */
 const EXPLAINS = /could not be determined|could not be fitted|no upper bound|poorly determined|almost fully correlated|negative|outside the plausible range/;
 

@@ -7,15 +7,24 @@ import path from 'node:path';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createApp } from '../../server/app.js';
-import { fitTafel } from '../../server/core/kinetics/index.js';
+import { fitKinetics, fitTafel } from '../../server/core/kinetics/index.js';
 import { cellSectionSchema } from '../../server/scenario/cell-section.js';
+import { savedFitSchema } from '../../server/scenario/schema.js';
 import { parseStudyText } from '../../server/scenario/store.js';
-import { alphaFromSlope, buildCell, formFromSection, kineticsFromFit, readForm, tafelLineUncertainty } from '../../server/web/cell-form.js';
+import { alphaFromSlope, buildCell, formFromSection, kineticsFromFit, readForm } from '../../server/web/cell-form.js';
+import { savedFitRecord } from '../../server/web/kinetics-view.js';
 import { exampleCell } from '../../scripts/example-cell.js';
 import { expectClose } from '../helpers/close.js';
 
 const EXAMPLE_ID = 'example-brackwater-pilot';
 const exampleStudy = parseStudyText(readFileSync(path.resolve('scenarios/brackwater-pilot.study.json'), 'utf8'));
+
+/** Overpotentials as measured of an example dataset (E − E_eq for electrode potentials). */
+function datasetPoints(id: string) {
+  const d = exampleStudy.datasets.find((x) => x.id === id)!;
+  const eq = d.potentialKind === 'electrode' ? d.equilibriumPotential! : 0;
+  return { d, pts: d.points.map((p) => ({ currentDensity: p.currentDensity, overpotential: p.potential - eq })) };
+}
 
 let dir: string;
 let app: ReturnType<typeof createApp>;
@@ -256,24 +265,11 @@ describe('Cell page', () => {
   });
 
   it('uses a kinetic fit saved in the study', async () => {
-    const d = exampleStudy.datasets.find((x) => x.id === 'anode-a-88c')!;
-    const pts = d.points.map((p) => ({ currentDensity: p.currentDensity, overpotential: p.potential - d.equilibriumPotential! }));
-    const t = fitTafel(pts, { temperature: d.temperature, window: 'auto', uncompensatedResistance: d.uncompensatedResistance ?? 0, branch: 'anodic' });
-    const param = (p: { value: number; standardError: number | null; unit: string }) => ({ value: p.value, standardError: p.standardError ?? undefined, unit: p.unit });
-    const fit = {
-      id: 'anode-a-88c-tafel',
-      name: 'Coating A at 88 °C (Tafel)',
-      datasetId: d.id,
-      electrode: 'anode',
-      model: 'tafel',
-      temperature: d.temperature,
-      parameters: {
-        exchangeCurrentDensity: param(t.parameters.exchangeCurrentDensity),
-        tafelSlope: param(t.parameters.tafelSlope),
-        transferCoefficient: param(t.parameters.transferCoefficient),
-      },
-      correlation: t.correlation,
-    };
+    const { d, pts } = datasetPoints('anode-a-88c');
+    const r = fitKinetics({ points: pts, model: 'tafel', temperature: d.temperature, window: 'auto', uncompensatedResistance: d.uncompensatedResistance ?? 0, branch: 'anodic' });
+    // The record the Kinetics page saves (same function), with a fixed id for the test.
+    const fit = { ...savedFitRecord(r, { name: 'Coating A at 88 °C (Tafel)', datasetId: d.id, electrode: 'anode', temperature: d.temperature }), id: 'anode-a-88c-tafel' };
+    expect(fit.correlation?.names).toEqual(['lnExchangeCurrentDensity', 'transferCoefficient']);
     const created = await request(app).post('/api/v1/studies').send({ ...exampleStudy, name: 'With a saved fit (test)', fits: [fit] });
     expect(created.status).toBe(201);
     const page = await request(app).get(`/cell?study=${created.body.id}`);
@@ -284,8 +280,38 @@ describe('Cell page', () => {
     // The kinetics table shows the fit's α and a correlation for the band.
     const row = /<tr>\s*<td>Anode<\/td>[\s\S]*?<\/tr>/.exec(res.text)![0];
     const cells = [...row.matchAll(/<td class="num">([^<]*)<\/td>/g)].map((m) => m[1]);
-    expectClose(Number(cells[0]), t.parameters.transferCoefficient.value, { rtol: 5e-4 }, 'α shown (4 significant digits)');
+    expectClose(Number(cells[0]), r.parameters.transferCoefficient!.value, { rtol: 5e-4 }, 'α shown (4 significant digits)');
     expect(Number(cells[cells.length - 1])).toBeLessThan(-0.9);
+  });
+
+  it('accepts a Tafel fit saved with the older (a, b) correlation, without uncertainty and with a note', async () => {
+    const { d, pts } = datasetPoints('anode-a-88c');
+    const t = fitTafel(pts, { temperature: d.temperature, window: 'auto', uncompensatedResistance: d.uncompensatedResistance ?? 0, branch: 'anodic' });
+    const param = (p: { value: number; standardError: number | null; unit: string }) => ({ value: p.value, standardError: p.standardError ?? undefined, unit: p.unit });
+    const fit = {
+      id: 'anode-a-88c-old',
+      name: 'Coating A at 88 °C (older record)',
+      datasetId: d.id,
+      electrode: 'anode',
+      model: 'tafel',
+      temperature: d.temperature,
+      parameters: {
+        exchangeCurrentDensity: param(t.parameters.exchangeCurrentDensity),
+        tafelSlope: param(t.parameters.tafelSlope),
+        transferCoefficient: param(t.parameters.transferCoefficient),
+      },
+      correlation: t.correlation, // names 'a (V)', 'b (V)'
+    };
+    const created = await request(app).post('/api/v1/studies').send({ ...exampleStudy, name: 'With an older saved fit (test)', fits: [fit] });
+    expect(created.status).toBe(201);
+    const fields = formFields((await request(app).get(`/cell?study=${created.body.id}`)).text);
+    const res = await postForm({ ...fields, 'anode.source': 'fit', 'anode.fit': fit.id });
+    expect(res.status).toBe(200);
+    expect(unescapeHtml(res.text)).toContain('Saved Tafel fit "Coating A at 88 °C (older record)"');
+    expect(unescapeHtml(res.text)).toMatch(/correlation of the line parameters \(a, b\), from which corr\(ln j0, α\) cannot be recovered/);
+    const k = kineticsFromFit(fit as Parameters<typeof kineticsFromFit>[0], 'anode', d.temperature, 'older fit');
+    expect(k.kinetics.uncertainty).toBeUndefined();
+    expectClose((k.kinetics as { transferCoefficient: number }).transferCoefficient, t.parameters.transferCoefficient.value, { rtol: 1e-15 }, 'α still used');
   });
 
   it('loads starting values for another chemistry', async () => {
@@ -324,51 +350,64 @@ describe('Cell form ↔ SI definition', () => {
     expectClose(alphaFromSlope(0.118318, 298.15), 0.5, { rtol: 2e-5 }, 'α for 118 mV/decade');
   });
 
-  it('recovers corr(ln j0, α) of a Tafel fit from its stored statistics, as the full covariance gives it', () => {
-    // Independent route: the Tafel fit's own intercept a with SE(a) and corr(a, b) give
-    // Cov(ln j0, b) = −ρσaσb/b + aσb²/b² directly (delta method), with no root to choose.
+  it('carries corr(ln j0, α) of a Tafel fit from the kinetics core, on the fly and through a saved fit', () => {
+    // Independent route: the line's own intercept a with SE(a), SE(b) and corr(a, b) from
+    // fitTafel give, by the delta method written out here (JCGM 100:2008 §5.1),
+    //   Cov(ln j0, b) = −ρσaσb/b + aσb²/b²  (ln j0 = −a/b),  corr(ln j0, α) = −corr(ln j0, b).
     for (const id of ['anode-a-88c', 'cathode-c-88c', 'cathode-d-70c']) {
-      const d = exampleStudy.datasets.find((x) => x.id === id)!;
-      const eq = d.potentialKind === 'electrode' ? d.equilibriumPotential! : 0;
-      const pts = d.points.map((p) => ({ currentDensity: p.currentDensity, overpotential: p.potential - eq }));
+      const { d, pts } = datasetPoints(id);
       const branch = d.electrode === 'anode' ? 'anodic' : 'cathodic';
-      const t = fitTafel(pts, { temperature: d.temperature, window: 'auto', uncompensatedResistance: d.uncompensatedResistance ?? 0, branch });
+      const ru = d.uncompensatedResistance ?? 0;
+      const t = fitTafel(pts, { temperature: d.temperature, window: 'auto', uncompensatedResistance: ru, branch });
       const b = t.parameters.tafelSlope.value / Math.LN10;
       const sb = t.parameters.tafelSlope.standardError! / Math.LN10;
       const a = t.parameters.intercept.value;
       const sa = t.parameters.intercept.standardError!;
       const rho = t.correlation.matrix[0][1];
-      const j0 = t.parameters.exchangeCurrentDensity;
-      const sL = j0.standardError! / j0.value;
+      const sL = Math.sqrt(sa * sa / (b * b) - (2 * a * rho * sa * sb) / b ** 3 + (a * a * sb * sb) / b ** 4);
       const expected = -((-rho * sa * sb) / b + (a * sb * sb) / (b * b)) / (sL * sb);
-      const u = tafelLineUncertainty({
-        slopePerEFold: b,
-        slopeSE: sb,
-        lnJ0: Math.log(j0.value),
-        lnJ0SE: sL,
-        rhoAB: rho,
-        alpha: t.parameters.transferCoefficient.value,
-        alphaSE: t.parameters.transferCoefficient.standardError!,
-      });
-      expect(u, id).toBeDefined();
-      expectClose(u!.correlation, expected, { rtol: 1e-8, atol: 1e-10 }, `${id} corr(ln j0, α)`);
-      expectClose(u!.lnExchangeCurrentDensitySE, sL, { rtol: 1e-12 }, `${id} SE ln j0`);
-      // And through the saved-fit shape (no intercept stored).
-      const fromSaved = kineticsFromFit(
-        {
-          model: 'tafel',
-          parameters: { exchangeCurrentDensity: j0, tafelSlope: t.parameters.tafelSlope, transferCoefficient: t.parameters.transferCoefficient },
-          correlation: t.correlation,
-        },
-        d.electrode,
-        d.temperature,
-        id,
-      );
-      expectClose(fromSaved.kinetics.uncertainty!.correlation, expected, { rtol: 1e-8, atol: 1e-10 }, `${id} saved-fit route`);
+      const sAlpha = (t.parameters.transferCoefficient.value * sb) / b; // α = RT/(bF): SE(α) = α·SE(b)/b
+      // On the fly: the core result as the Cell page fits a dataset.
+      const r = fitKinetics({ points: pts, model: 'tafel', temperature: d.temperature, window: 'auto', uncompensatedResistance: ru, branch });
+      const live = kineticsFromFit(r, d.electrode, d.temperature, id).kinetics.uncertainty!;
+      expectClose(live.correlation, expected, { rtol: 1e-9, atol: 1e-12 }, `${id} corr(ln j0, α)`);
+      expectClose(live.lnExchangeCurrentDensitySE, sL, { rtol: 1e-9 }, `${id} SE ln j0`);
+      expectClose(live.transferCoefficientSE, sAlpha, { rtol: 1e-9 }, `${id} SE α`);
+      // Through the saved record, validated by the study schema (as a study file would be).
+      const saved = savedFitSchema.parse(savedFitRecord(r, { name: id, electrode: d.electrode, temperature: d.temperature }));
+      const fromSaved = kineticsFromFit(saved, d.electrode, d.temperature, id).kinetics.uncertainty!;
+      expectClose(fromSaved.correlation, expected, { rtol: 1e-9, atol: 1e-12 }, `${id} saved-fit corr`);
+      expectClose(fromSaved.lnExchangeCurrentDensitySE, sL, { rtol: 1e-9 }, `${id} saved-fit SE ln j0`);
+      expectClose(fromSaved.transferCoefficientSE, sAlpha, { rtol: 1e-9 }, `${id} saved-fit SE α`);
     }
   });
 
-  it('takes a saved Butler–Volmer fit with its ln j0–ln α correlation', () => {
+  it('carries the working α of a saved Butler–Volmer fit (the electrode\'s own branch)', () => {
+    const { d, pts } = datasetPoints('cathode-c-88c');
+    const r = fitKinetics({ points: pts, model: 'butler-volmer', temperature: d.temperature, electrons: 2, uncompensatedResistance: d.uncompensatedResistance ?? 0 });
+    expect(r.converged).toBe(true);
+    const saved = savedFitSchema.parse(savedFitRecord(r, { name: 'BV', electrode: 'cathode', temperature: d.temperature }));
+    expect(saved.correlation?.names).toEqual(['lnExchangeCurrentDensity', 'cathodicTransferCoefficient']);
+    const u = kineticsFromFit(saved, 'cathode', d.temperature, 'BV').kinetics.uncertainty!;
+    // Independent of the record: the fit's own parameter correlation of ln j0 and ln α_c (a
+    // monotone increasing map of α_c keeps the first-order correlation) and the parameters' SEs.
+    const names = r.correlation!.names;
+    const corr = r.correlation!.matrix[names.indexOf('ln j0')][names.indexOf('ln α_c')];
+    expectClose(u.correlation, corr, { rtol: 1e-9, atol: 1e-12 }, 'corr(ln j0, α_c)');
+    const j0 = r.parameters.exchangeCurrentDensity;
+    expectClose(u.lnExchangeCurrentDensitySE, j0.standardError! / j0.value, { rtol: 1e-12 }, 'SE ln j0');
+    expectClose(u.transferCoefficientSE, r.parameters.cathodicTransferCoefficient!.standardError!, { rtol: 1e-12 }, 'SE α_c');
+    // Saved as an anode fit, the record would describe the other branch: it is left out.
+    const asAnode = savedFitRecord(r, { name: 'BV', electrode: 'anode', temperature: d.temperature });
+    expect(asAnode.correlation).toBeUndefined();
+    // A record naming the other electrode's α is not used for this one.
+    const other = { ...saved, correlation: { names: ['lnExchangeCurrentDensity', 'anodicTransferCoefficient'], matrix: saved.correlation!.matrix } };
+    const k = kineticsFromFit(other, 'cathode', d.temperature, 'BV');
+    expect(k.kinetics.uncertainty).toBeUndefined();
+    expect(k.warnings.join(' ')).toMatch(/transfer coefficient of the other branch/);
+  });
+
+  it('takes a saved Butler–Volmer fit with its ln j0–ln α correlation (record saved before the working-branch correlation)', () => {
     const k = kineticsFromFit(
       {
         model: 'butler-volmer',

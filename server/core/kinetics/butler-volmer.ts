@@ -41,6 +41,7 @@ import { fitStatistics, fixedParameter, symmetricParameter, tQuantile95 } from '
 import type { Branch, FitStatistics, FittedParameter, PolarizationPoint, ResidualRecord } from './types.js';
 import { checkPoints, checkTemperature, checkWindow } from './validate.js';
 import { lowFieldLimit } from './window.js';
+import { pairFromCovariance, type WorkingBranchUncertainty } from './working-branch.js';
 
 export interface ButlerVolmerFitOptions {
   /** Temperature [K] (> 0). */
@@ -85,6 +86,13 @@ export interface ButlerVolmerFitResult {
   statistics: FitStatistics;
   window: { minOverpotential: number; maxOverpotential: number; rule: string; automatic: boolean };
   correlation: { names: string[]; matrix: number[][] };
+  /**
+   * (ln j0, α) of the main branch (the `branch` option, else the branch with more fitted
+   * points: α_a when anodic, α_c when cathodic) with standard errors and correlation, by the
+   * delta method from the fit covariance (see workingBranchPair); absent when the fit did not
+   * converge or ln j0 or that α is not determined.
+   */
+  workingBranchUncertainty?: WorkingBranchUncertainty;
   residuals: ResidualRecord[];
   curve: PolarizationPoint[];
   converged: boolean;
@@ -116,11 +124,37 @@ const PHI_RUNAWAY = Math.log(LIMIT_RUNAWAY_FACTOR - 1);
  * j_max itself (project choices).
  */
 const PROFILE_PHI_LOW = -20;
-/** Bracketing steps (doubling) and regula-falsi refinements per interval end (project choice). */
-const PROFILE_MAX_BRACKET_STEPS = 10;
-const PROFILE_MAX_REFINE_STEPS = 12;
-/** Stop refining an interval end when the bracket on φ is this narrow (project choice; 1e-3 in φ ≈ 0.1 % in j_lim − j_max). */
-const PROFILE_PHI_TOLERANCE = 1e-3;
+/**
+ * Accuracy of a profile-interval end: the root search on φ stops when its last correction is
+ * below this fraction of the end's distance from the estimate (0.5 % of the half-width in φ;
+ * the end of a 95 % interval is itself a statistical estimate good to a few per cent, so
+ * finer resolution buys nothing; project choice). The returned end is the secant estimate
+ * after that correction, typically far more accurate than the tolerance.
+ */
+const PROFILE_RELATIVE_TOLERANCE = 5e-3;
+/** Absolute floor of that tolerance in φ (for an end that lies very close to the estimate). */
+const PROFILE_ABSOLUTE_TOLERANCE = 1e-9;
+/** Profile fits per interval end before the search gives up (project choice; 2–4 are typical). */
+const PROFILE_MAX_FITS = 16;
+/**
+ * Largest first trial distance from the estimate in φ (a factor e on j_lim − j_max): when the
+ * linearised SE of φ is large the profile is far from quadratic and t·SE can overshoot the
+ * end by a wide margin, which leaves a lopsided bracket (project choice).
+ */
+const PROFILE_FIRST_STEP = 1;
+/** Largest growth factor of the distance from the estimate while an end is not yet bracketed (project choice). */
+const PROFILE_MAX_EXPANSION = 4;
+/**
+ * Levenberg–Marquardt settings of one profile fit (φ held, the other parameters re-fitted
+ * from a warm start on the profile trace). The profile RSS enters the end condition through
+ * τ = √((RSS − RSS_min)/s²), s² = RSS_min/dof, so a relative RSS error δ moves τ by
+ * ≈ δ·dof/(2t); ftol = 1e-10 keeps that far below the end tolerance even for 10⁵ points,
+ * and Gauss–Newton's quadratic convergence from the warm start reaches it in 2–4 steps.
+ * The analytic Jacobian was already checked against differences at the main solution, so
+ * the check is skipped; few evaluations are allowed (a profile fit that needs more is
+ * reported as failed and the interval falls back to the linearised one). Project choices.
+ */
+const PROFILE_LM_OPTIONS = { ftol: 1e-10, xtol: 1e-10, gtol: 1e-10, checkJacobian: false, maxEvaluations: 60 } as const;
 /** Clamp of starting transfer coefficients (project choice). */
 const ALPHA_START_RANGE: [number, number] = [0.1, 3];
 const CURVE_POINTS_PER_BRANCH = 50;
@@ -508,7 +542,7 @@ function fitButlerVolmerWith(points: PolarizationPoint[], options: ButlerVolmerF
   params.tafelSlope = { ...(mainBranch === 'anodic' ? params.anodicTafelSlope : params.cathodicTafelSlope) };
   params.tafelSlope.note = options.branch ? `${mainBranch} branch (as requested)` : `${mainBranch} branch (the one with more fitted points)`;
   const profileOf = (k: number): ProfileEnds | null =>
-    fit.converged && seOf(k) !== null ? profileInterval(model, theta, k, fit.rss, dof, t, seOf(k) as number) : null;
+    fit.converged && seOf(k) !== null ? profileInterval(model, theta, fit.covariance, k, fit.rss, dof, t) : null;
   if (iLa >= 0) {
     params.anodicLimitingCurrentDensity = limitParameter(theta[iLa], seOf(iLa), t, jMaxA, profileOf(iLa), 'anodic', warnings);
   } else if (typeof limA === 'number') params.anodicLimitingCurrentDensity = fixedParameter(limA, 'A/m²');
@@ -533,6 +567,25 @@ function fitButlerVolmerWith(points: PolarizationPoint[], options: ButlerVolmerF
     params.singleStepSymmetryReading = reading;
   }
 
+  // ---- Working-branch (ln j0, α) pair for the cell model's uncertainty propagation.
+  let working: WorkingBranchUncertainty | undefined;
+  if (fit.converged && se[0] !== null) {
+    const anodicMain = mainBranch === 'anodic';
+    const alpha = anodicMain ? u.alphaA : u.alphaC;
+    // Free α = e^θ: dα/dθ = α; tied α_a = n·σ(z), α_c = n − α_a: ±n·σ(1 − σ); held α: no variance.
+    let k = -1;
+    let dAlpha = 0;
+    if (alphaMode === 'free') {
+      k = anodicMain ? iAa : iAc;
+      dAlpha = alpha;
+    } else if (alphaMode === 'tied') {
+      k = iZ;
+      const sg = sigmoid(theta[iZ]);
+      dAlpha = (anodicMain ? 1 : -1) * (electrons as number) * sg * (1 - sg);
+    }
+    if (k < 0 || se[k] !== null) working = workingBranchPair(mainBranch, theta[0], alpha, k, dAlpha, fit.covariance);
+  }
+
   // ---- Residual records, statistics, curve.
   const fittedEta = model.modelEta(theta);
   const usedSet = new Map<number, number>();
@@ -550,7 +603,10 @@ function fitButlerVolmerWith(points: PolarizationPoint[], options: ButlerVolmerF
     };
   });
   const resUsed = used.map((_, k) => H[k] - fittedEta[k]);
-  const statistics = fitStatistics(resUsed, H, nFree);
+  // R² of the overpotential after a known j·R_u is subtracted (as for the Tafel line; see
+  // FitStatistics.rSquared); residuals, RSS and the information criteria are unaffected.
+  const knownRu = typeof ruOpt === 'number' ? ruOpt : 0;
+  const statistics = fitStatistics(resUsed, knownRu > 0 ? H.map((h, k) => h - J[k] * knownRu) : H, nFree);
   const curve = model.curve(u, nA > 0 ? jMaxA : 0, nC > 0 ? jMaxC : 0, minAbs(J));
 
   // ---- Identifiability and plausibility warnings.
@@ -600,7 +656,7 @@ function fitButlerVolmerWith(points: PolarizationPoint[], options: ButlerVolmerF
     etaMin = Math.min(etaMin, Math.abs(h));
     etaMax = Math.max(etaMax, Math.abs(h));
   }
-  return {
+  const result: ButlerVolmerFitResult = {
     model: 'butler-volmer',
     parameters: params,
     statistics,
@@ -622,6 +678,22 @@ function fitButlerVolmerWith(points: PolarizationPoint[], options: ButlerVolmerF
     evaluations: fit.evaluations,
     warnings,
   };
+  if (working) result.workingBranchUncertainty = working;
+  return result;
+}
+
+/**
+ * Working-branch pair (ln j0, α) from the covariance Σ of the fitted vector θ (θ_0 = ln j0):
+ * α depends on the single parameter θ_k with derivative dα/dθ_k = `dAlpha` (k < 0: α held,
+ * no variance). Delta method: Var(α) = (dα/dθ_k)²·Σ_kk, Cov(ln j0, α) = (dα/dθ_k)·Σ_0k; for
+ * the log-parametrised α = e^θ this gives SE(α) = α·SE(ln α) and leaves the correlation of
+ * (ln j0, ln α) unchanged; for the tied α_c = n − α_a its sign flips.
+ * Source: delta method (working-branch.ts).
+ */
+function workingBranchPair(branch: Branch, lnJ0: number, alpha: number, k: number, dAlpha: number, cov: number[][]): WorkingBranchUncertainty | undefined {
+  const varAlpha = k >= 0 ? dAlpha * dAlpha * cov[k][k] : 0;
+  const covLA = k >= 0 ? dAlpha * cov[0][k] : 0;
+  return pairFromCovariance(branch, lnJ0, cov[0][0], alpha, varAlpha, covLA);
 }
 
 /** Ends of a profile-likelihood interval on φ; an end is null when the data do not bound it. */
@@ -631,93 +703,159 @@ interface ProfileEnds {
 }
 
 /**
+ * One evaluated point of a profile: distance d = |φ − φ̂| ≥ 0 from the estimate along the
+ * search direction, h = τ(φ) − t (negative inside the interval), and the full parameter
+ * vector of the profile fit there (warm start for the next one).
+ */
+interface ProfilePoint {
+  d: number;
+  h: number;
+  theta: number[];
+}
+
+/**
  * 95 % profile-likelihood interval of parameter k (θ_k = φ of a fitted limiting current):
- * the set of φ whose profile residual sum of squares, minimised over all other parameters
- * with φ held, stays within RSS(φ) ≤ RSS_min·(1 + t²/dof), t = t_{0.975, dof} (the
- * F-based likelihood interval for one parameter of a least-squares fit). Each end is
- * bracketed by doubling steps from the estimate (first step 2·SE, at least 0.25) and refined
- * by regula falsi (Illinois variant). The upper end is open (null) when it is not reached
- * by φ = PHI_RUNAWAY (j_lim = 100·j_max); the lower end is open when not reached by
- * PROFILE_PHI_LOW. Returns null when a profile fit cannot be evaluated.
- * Profile fits reuse the model's analytic Jacobian (already checked against differences at
- * the main solution), so their own end-of-fit check is skipped for speed.
- * Source: profile t / likelihood intervals, D. M. Bates and D. G. Watts, Nonlinear Regression
- * Analysis and Its Applications, Wiley (1988), ch. 6 (from memory); Illinois regula falsi,
+ * the set of φ whose profile residual sum of squares RSS(φ), minimised over all other
+ * parameters with φ held, stays within RSS(φ) ≤ RSS_min·(1 + t²/dof), t = t_{0.975, dof}
+ * (the F-based likelihood interval for one parameter of a least-squares fit).
+ *
+ * Method. The end condition is written with the profile t statistic
+ *   τ(φ) = √((RSS(φ) − RSS_min)/s²),  s² = RSS_min/dof,  end where τ = t,
+ * which is exactly linear in φ for a linear model (τ = |φ − φ̂|/SE) and nearly linear for
+ * a mildly nonlinear one, so a secant search converges in a few profile fits (typically two
+ * per end). Each end is found on h(d) = τ − t in d = |φ − φ̂|: first trial at the linearised
+ * end d = min(t·SE, PROFILE_FIRST_STEP); while h < 0, secant extrapolation through the last
+ * two points (at most a factor PROFILE_MAX_EXPANSION further out); once bracketed, the
+ * secant through the last two fits when it stays inside the bracket, else the Illinois
+ * variant of regula falsi. The search stops when the last correction is below
+ * PROFILE_RELATIVE_TOLERANCE of d and returns the corrected estimate. Warm starts: the
+ * first trial starts the other parameters on the first-order profile trace
+ * θ_i(φ) ≈ θ̂_i + (Σ_ik/Σ_kk)(φ − φ̂) from the fit covariance Σ; later trials interpolate
+ * linearly between the two last profile solutions. Each profile fit is a short
+ * Levenberg–Marquardt run (PROFILE_LM_OPTIONS) on the model's own kernels and per-point
+ * warm-started η solves. Early stop: the upper end is open (null) as soon as τ < t at
+ * φ = PHI_RUNAWAY (j_lim = 100·j_max); the lower end is open when τ < t at PROFILE_PHI_LOW.
+ * Returns null when a profile fit cannot be evaluated or an end is not found within
+ * PROFILE_MAX_FITS fits (the caller then uses the linearised interval).
+ * Sources: profile t statistic and likelihood intervals, D. M. Bates and D. G. Watts,
+ * Nonlinear Regression Analysis and Its Applications, Wiley (1988), §6.1 (profile t, profile
+ * trace; from memory); secant search (textbook numerical analysis); Illinois regula falsi,
  * Dowell & Jarratt, BIT 11 (1971) 168–174 (from memory).
  */
-function profileInterval(model: BvResidualModel, thetaHat: number[], k: number, rssMin: number, dof: number, t: number, seK: number): ProfileEnds | null {
-  if (!(dof > 0) || !(rssMin > 0)) return null;
-  const target = rssMin * (1 + (t * t) / dof);
-  const reduced = (value: number, warm: number[]): { rss: number; theta: number[] } | null => {
-    const expand = (q: number[]) => {
-      const th = q.slice();
-      th.splice(k, 0, value);
-      return th;
-    };
-    try {
-      const r = levenbergMarquardt(
-        {
-          residuals: (q) => model.residuals(expand(q)),
-          jacobian: (q) => model.jacobian(expand(q)).map((row) => row.filter((_, i) => i !== k)),
-          start: warm.filter((_, i) => i !== k),
-        },
-        { checkJacobian: false },
-      );
-      return Number.isFinite(r.rss) ? { rss: r.rss, theta: expand(r.parameters) } : null;
-    } catch {
-      return null;
-    }
+function profileInterval(model: BvResidualModel, thetaHat: number[], covariance: number[][], k: number, rssMin: number, dof: number, t: number): ProfileEnds | null {
+  const varK = covariance[k]?.[k];
+  if (!(dof > 0) || !(rssMin > 0) || !(varK > 0) || !Number.isFinite(varK)) return null;
+  const seK = Math.sqrt(varK);
+  const s2 = rssMin / dof;
+  const phiHat = thetaHat[k];
+  const p = thetaHat.length;
+  // First-order profile trace: ∂θ_i/∂θ_k = Σ_ik/Σ_kk along the profile.
+  const trace = thetaHat.map((_, i) => (i === k ? 1 : covariance[i][k] / varK));
+  if (!trace.every(Number.isFinite)) return null;
+  // Buffers reused by every profile fit: the full vector (θ_k held) and the reduced start.
+  const full = thetaHat.slice();
+  const reducedStart = new Array<number>(p - 1).fill(0);
+  const expand = (q: number[]): number[] => {
+    for (let i = 0, r = 0; i < p; i++) if (i !== k) full[i] = q[r++];
+    return full;
   };
-  const end = (dir: 1 | -1): number | null | undefined => {
-    const limit = dir > 0 ? PHI_RUNAWAY : PROFILE_PHI_LOW;
-    let a = thetaHat[k];
-    let ga = rssMin - target;
-    let warm = thetaHat;
-    let step = Math.max(2 * seK, 0.25);
-    for (let i = 0; i < PROFILE_MAX_BRACKET_STEPS; i++) {
-      if (dir * (a - limit) >= 0) return null;
-      const b = dir > 0 ? Math.min(a + step, limit) : Math.max(a - step, limit);
-      const rb = reduced(b, warm);
-      if (rb === null) return undefined;
-      const gb = rb.rss - target;
-      if (gb >= 0) {
-        // Bracket [a, b] with g(a) < 0 ≤ g(b): Illinois regula falsi.
-        let lo = a;
-        let glo = ga;
-        let hi = b;
-        let ghi = gb;
-        let side = 0;
-        let w = rb.theta;
-        for (let j = 0; j < PROFILE_MAX_REFINE_STEPS && Math.abs(hi - lo) > PROFILE_PHI_TOLERANCE; j++) {
-          const c = (lo * ghi - hi * glo) / (ghi - glo);
-          const rc = reduced(c, w);
-          if (rc === null) return undefined;
-          const gc = rc.rss - target;
-          w = rc.theta;
-          if (gc >= 0) {
-            hi = c;
-            ghi = gc;
-            if (side === 1) glo /= 2;
-            side = 1;
-          } else {
-            lo = c;
-            glo = gc;
-            if (side === -1) ghi /= 2;
-            side = -1;
-          }
-        }
-        return (lo * ghi - hi * glo) / (ghi - glo);
-      }
-      a = b;
-      ga = gb;
-      warm = rb.theta;
-      step *= 2;
+  const problem = {
+    residuals: (q: number[]) => model.residuals(expand(q)),
+    jacobian: (q: number[]) => model.jacobian(expand(q), k),
+    start: reducedStart,
+  };
+  const fitFrom = (phi: number, warm: number[]): { rss: number; theta: number[] } | null => {
+    for (let i = 0, r = 0; i < p; i++) if (i !== k) reducedStart[r++] = warm[i];
+    if (!reducedStart.every(Number.isFinite)) return null;
+    full[k] = phi;
+    let r: NonlinearFit;
+    try {
+      r = levenbergMarquardt(problem, PROFILE_LM_OPTIONS);
+    } catch {
+      return null; // e.g. residuals not finite at the warm start
     }
-    return null;
+    // A rank-deficient profile fit still has a well-defined minimum RSS.
+    if (!Number.isFinite(r.rss) || !(r.converged || r.status === 'failed:singular')) return null;
+    const theta = expand(r.parameters).slice();
+    theta[k] = phi;
+    return { rss: r.rss, theta };
+  };
+  const pointAt = (dir: 1 | -1, d: number, warm: number[], fallback: number[]): ProfilePoint | null => {
+    const phi = phiHat + dir * d;
+    const r = fitFrom(phi, warm) ?? fitFrom(phi, fallback);
+    if (r === null) return null;
+    return { d, h: Math.sqrt(Math.max(0, r.rss - rssMin) / s2) - t, theta: r.theta };
+  };
+  const interpolate = (a: ProfilePoint, b: ProfilePoint, d: number): number[] => {
+    const w = (d - a.d) / (b.d - a.d);
+    return Number.isFinite(w) ? a.theta.map((v, i) => v + (b.theta[i] - v) * w) : b.theta;
+  };
+  /** φ at one end; null = open (not reached within the search range); undefined = failed. */
+  const end = (dir: 1 | -1): number | null | undefined => {
+    const reach = dir > 0 ? PHI_RUNAWAY - phiHat : phiHat - PROFILE_PHI_LOW;
+    if (!(reach > 0)) return null;
+    const centre: ProfilePoint = { d: 0, h: -t, theta: thetaHat };
+    let prev = centre;
+    let last = centre;
+    let d = Math.min(t * seK, PROFILE_FIRST_STEP, reach);
+    let fits = 0;
+    // 1. Bracket: secant extrapolation outwards while τ < t.
+    for (;;) {
+      if (fits++ >= PROFILE_MAX_FITS) return undefined;
+      const warm = last === centre ? thetaHat.map((v, i) => v + dir * d * trace[i]) : interpolate(prev, last, d);
+      const pt = pointAt(dir, d, warm, last.theta);
+      if (pt === null) return undefined;
+      prev = last;
+      last = pt;
+      if (pt.h >= 0) break;
+      if (pt.d >= reach) return null; // τ < t over the whole search range: open end
+      const slope = (last.h - prev.h) / (last.d - prev.d);
+      let next = slope > 0 ? last.d - last.h / slope : NaN;
+      if (!(next > last.d)) next = PROFILE_MAX_EXPANSION * last.d;
+      next = Math.min(next, PROFILE_MAX_EXPANSION * last.d, reach);
+      if (next - last.d <= Math.max(PROFILE_RELATIVE_TOLERANCE * next, PROFILE_ABSOLUTE_TOLERANCE)) return phiHat + dir * next;
+      d = next;
+    }
+    // 2. Refine inside the bracket [inside, outside] by the Illinois variant of regula falsi
+    //    (the kept end's h is halved when the same end is kept twice in a row).
+    let inD = prev.d;
+    let inH = prev.h;
+    let outD = last.d;
+    let outH = last.h;
+    let kept = 0;
+    let estimate = inD - (inH * (outD - inD)) / (outH - inH);
+    while (fits++ < PROFILE_MAX_FITS) {
+      const tol = Math.max(PROFILE_RELATIVE_TOLERANCE * estimate, PROFILE_ABSOLUTE_TOLERANCE);
+      if (outD - inD <= tol) return phiHat + dir * estimate;
+      const pt = pointAt(dir, estimate, interpolate(prev, last, estimate), last.theta);
+      if (pt === null) return undefined;
+      prev = last;
+      last = pt;
+      if (pt.h >= 0) {
+        outD = pt.d;
+        outH = pt.h;
+        if (kept === 1) inH /= 2;
+        kept = 1;
+      } else {
+        inD = pt.d;
+        inH = pt.h;
+        if (kept === -1) outH /= 2;
+        kept = -1;
+      }
+      // Secant through the last two fits when it stays inside the bracket, else regula falsi.
+      const slope = (last.h - prev.h) / (last.d - prev.d);
+      let next = slope > 0 ? last.d - last.h / slope : NaN;
+      if (!(next > inD && next < outD)) next = inD - (inH * (outD - inD)) / (outH - inH);
+      const done = Math.abs(next - pt.d) <= Math.max(PROFILE_RELATIVE_TOLERANCE * next, PROFILE_ABSOLUTE_TOLERANCE);
+      estimate = next;
+      if (done) return phiHat + dir * estimate;
+    }
+    return undefined;
   };
   const high = end(1);
+  if (high === undefined) return null;
   const low = end(-1);
-  if (high === undefined || low === undefined) return null;
+  if (low === undefined) return null;
   return { low, high };
 }
 
@@ -935,12 +1073,15 @@ function startingValues(J: number[], H: number[], T: number, knownRu: number): S
 }
 
 /**
- * Residuals and analytic Jacobian of the BV fit, with warm-started η solves and a one-entry
- * cache (the Jacobian is usually requested at the point whose residuals were just computed).
+ * Residuals and analytic Jacobian of the BV fit, with warm-started η solves (each point's last
+ * solution moved to first order by the parameter change) and a one-entry cache (the Jacobian
+ * is usually requested at the point whose residuals were just computed). Kernels and
+ * per-point buffers are allocated once and reused by the main fit and its profile fits.
  */
 class BvResidualModel {
   private readonly n: number;
   private readonly x: Float64Array; // last |η_BV| per point (warm start)
+  private readonly lnAbsJ: Float64Array; // ln|j| per point (constant; 0 where j = 0)
   private readonly ev: BranchEval = newBranchEval();
   private cacheTheta: number[] | null = null;
   private cacheU: Unpacked | null = null;
@@ -952,6 +1093,8 @@ class BvResidualModel {
   private readonly dLa: Float64Array;
   private readonly dLc: Float64Array;
   private readonly kern: { anodic: BranchKernel; cathodic: BranchKernel };
+  /** Scratch row of the Jacobian assembly (reused). */
+  private rowScratch: Float64Array = new Float64Array(0);
 
   constructor(
     private readonly J: number[],
@@ -963,6 +1106,7 @@ class BvResidualModel {
   ) {
     this.n = J.length;
     this.x = new Float64Array(this.n).fill(NaN);
+    this.lnAbsJ = Float64Array.from(J, (j) => (j === 0 ? 0 : Math.log(Math.abs(j))));
     this.dLnJ0 = new Float64Array(this.n);
     this.dAa = new Float64Array(this.n);
     this.dAc = new Float64Array(this.n);
@@ -974,6 +1118,7 @@ class BvResidualModel {
   resetWarmStart(): void {
     this.x.fill(NaN);
     this.cacheTheta = null;
+    this.cacheU = null;
   }
 
   residuals(theta: number[]): number[] {
@@ -981,20 +1126,26 @@ class BvResidualModel {
     return this.cacheRes.slice();
   }
 
-  /** Jacobian ∂r_i/∂θ_k (n×p rows), assembled from the per-point factors at θ. */
-  jacobian(theta: number[]): number[][] {
+  /**
+   * Jacobian ∂r_i/∂θ_k (n×p rows), assembled from the per-point factors at θ. With `skip`
+   * ≥ 0 the column of that parameter is left out (n×(p − 1) rows: a profile fit holds it).
+   */
+  jacobian(theta: number[], skip = -1): number[][] {
     this.evaluate(theta);
     const u = this.cacheU as Unpacked;
     const p = theta.length;
+    const full = this.rowScratch.length === p ? this.rowScratch : (this.rowScratch = new Float64Array(p));
     const jac: number[][] = new Array(this.n);
     for (let i = 0; i < this.n; i++) {
-      const row = new Array<number>(p).fill(0);
-      for (const e of u.lnJ0Dep) row[e.index] += this.dLnJ0[i] * e.d;
-      for (const e of u.alphaADep) row[e.index] += this.dAa[i] * e.d;
-      for (const e of u.alphaCDep) row[e.index] += this.dAc[i] * e.d;
-      for (const e of u.limADep) row[e.index] += this.dLa[i] * e.d;
-      for (const e of u.limCDep) row[e.index] += this.dLc[i] * e.d;
-      for (const e of u.ruDep) row[e.index] += this.J[i] * e.d;
+      full.fill(0);
+      for (const e of u.lnJ0Dep) full[e.index] += this.dLnJ0[i] * e.d;
+      for (const e of u.alphaADep) full[e.index] += this.dAa[i] * e.d;
+      for (const e of u.alphaCDep) full[e.index] += this.dAc[i] * e.d;
+      for (const e of u.limADep) full[e.index] += this.dLa[i] * e.d;
+      for (const e of u.limCDep) full[e.index] += this.dLc[i] * e.d;
+      for (const e of u.ruDep) full[e.index] += this.J[i] * e.d;
+      const row = new Array<number>(skip >= 0 ? p - 1 : p);
+      for (let c = 0, r = 0; c < p; c++) if (c !== skip) row[r++] = full[c];
       jac[i] = row;
     }
     return jac;
@@ -1022,8 +1173,8 @@ class BvResidualModel {
   }
 
   /** ln(|j|/j_lim) without cancellation near the fitted limit (uses the stored excess). */
-  private lnOverLimit(mag: number, lim: number, jMax: number, excess: number): number {
-    if (!Number.isFinite(lim)) return Math.log(mag);
+  private lnOverLimit(mag: number, lnMag: number, lim: number, jMax: number, excess: number): number {
+    if (!Number.isFinite(lim)) return lnMag;
     if (Number.isFinite(excess) && mag >= 0.5 * lim) return Math.log1p(-((jMax - mag) + excess) / lim);
     return lnRatioToLimit(mag, lim);
   }
@@ -1035,6 +1186,18 @@ class BvResidualModel {
     const res = new Array<number>(this.n);
     const ev = this.ev;
     const f = this.f;
+    // Warm start: each point's last solution x moved to first order by the change of the
+    // physical parameters since then, x + s·Σ_q (∂η/∂q)·Δq, with the derivative factors of that
+    // solution (kept below). Small parameter changes (finite differences, late LM steps,
+    // profile fits) then start Newton within its stopping tolerance. Our own device.
+    const last = this.cacheU;
+    const change = (now: number, before: number) => (now === before ? 0 : now - before);
+    const dq0 = last ? change(u.lnJ0, last.lnJ0) : NaN;
+    const dqA = last ? change(u.alphaA, last.alphaA) : NaN;
+    const dqC = last ? change(u.alphaC, last.alphaC) : NaN;
+    const dqLa = last ? change(u.lnLimA, last.lnLimA) : NaN;
+    const dqLc = last ? change(u.lnLimC, last.lnLimC) : NaN;
+    const predict = Number.isFinite(dq0 + dqA + dqC + dqLa + dqLc);
     for (let i = 0; i < this.n; i++) {
       const j = this.J[i];
       if (j === 0) {
@@ -1045,12 +1208,17 @@ class BvResidualModel {
       const anodic = j > 0;
       const k = anodic ? this.kern.anodic : this.kern.cathodic;
       const mag = Math.abs(j);
-      const lnT = Math.log(mag);
-      const lnO = anodic ? this.lnOverLimit(mag, u.limA, this.jMaxA, u.limAExcess) : this.lnOverLimit(mag, u.limC, this.jMaxC, u.limCExcess);
-      let xi = solveBranch(k, lnT, lnO, this.x[i], ev);
+      const lnT = this.lnAbsJ[i];
+      const lnO = anodic ? this.lnOverLimit(mag, lnT, u.limA, this.jMaxA, u.limAExcess) : this.lnOverLimit(mag, lnT, u.limC, this.jMaxC, u.limCExcess);
+      const s = anodic ? 1 : -1;
+      let guess = this.x[i];
+      if (predict) {
+        const moved = guess + s * (this.dLnJ0[i] * dq0 + this.dAa[i] * dqA + this.dAc[i] * dqC + this.dLa[i] * dqLa + this.dLc[i] * dqLc);
+        if (moved > 0 && Number.isFinite(moved)) guess = moved;
+      }
+      let xi = solveBranch(k, lnT, lnO, guess, ev);
       if (!Number.isFinite(xi)) xi = solveBranch(k, lnT, lnO, NaN, ev);
       this.x[i] = xi;
-      const s = anodic ? 1 : -1;
       res[i] = s * xi + j * u.ru - this.H[i];
       // ∂ln|j|/∂q at fixed x, then ∂x/∂q = −(∂ln|j|/∂q)/(∂ln|j|/∂x); η = s·x.
       const inv = -s / ev.dLnCurrentDx;

@@ -7,6 +7,7 @@ import { InputError } from '../errors.js';
 import { fitButlerVolmer } from './butler-volmer.js';
 import { fitTafel } from './tafel.js';
 import type { Branch, FittedParameter, PolarizationPoint, ResidualRecord } from './types.js';
+import type { WorkingBranchUncertainty } from './working-branch.js';
 import { checkPoints, checkTemperature } from './validate.js';
 
 export interface KineticsFitInput {
@@ -51,6 +52,16 @@ export interface KineticsFitResult {
   statistics: { points: number; degreesOfFreedom: number; rSquared: number; residualStandardDeviation: number; aic: number; bic: number };
   window: { minOverpotential: number; maxOverpotential: number; rule: string };
   correlation?: { names: string[]; matrix: number[][] };
+  /**
+   * Uncertainty of the working branch for the cell model: ln j0 and the transfer
+   * coefficient of the branch (Tafel: the fitted branch; Butler–Volmer: the main branch,
+   * i.e. the `branch` option or the one with more fitted points — α_a when anodic, α_c when
+   * cathodic), each with its standard error, and corr(ln j0, α), by the delta method from the
+   * fit covariance (working-branch.ts; covariance scaled by s² = RSS/(n − p)). It maps onto
+   * core/cell KineticUncertainty. Absent when the fit does not determine the pair
+   * (rank-deficient or not converged). A held α has SE 0 and correlation 0.
+   */
+  workingBranchUncertainty?: WorkingBranchUncertainty;
   residuals: ResidualRecord[];
   curve: PolarizationPoint[];
   converged: boolean;
@@ -105,6 +116,7 @@ export function fitKinetics(input: KineticsFitInput): KineticsFitResult {
       statistics: pickStats(r.statistics),
       window: { minOverpotential: r.window.minOverpotential, maxOverpotential: r.window.maxOverpotential, rule: r.window.rule },
       correlation: r.correlation,
+      ...(r.workingBranchUncertainty ? { workingBranchUncertainty: r.workingBranchUncertainty } : {}),
       residuals: r.residuals,
       curve: r.curve,
       converged: r.converged,
@@ -130,6 +142,7 @@ export function fitKinetics(input: KineticsFitInput): KineticsFitResult {
     statistics: pickStats(r.statistics),
     window: { minOverpotential: r.window.minOverpotential, maxOverpotential: r.window.maxOverpotential, rule: r.window.rule },
     correlation: r.correlation,
+    ...(r.workingBranchUncertainty ? { workingBranchUncertainty: r.workingBranchUncertainty } : {}),
     residuals: r.residuals,
     curve: r.curve,
     converged: r.converged,

@@ -9,6 +9,8 @@ export { fitButlerVolmer } from './butler-volmer.js';
 export type { ButlerVolmerFitOptions, ButlerVolmerFitResult, ButlerVolmerParameters } from './butler-volmer.js';
 export { compareTafelButlerVolmer } from './compare.js';
 export type { CompareOptions, ModelComparison, ModelSummary } from './compare.js';
+export { pairFromCovariance, tafelWorkingBranchUncertainty, WORKING_BRANCH_LN_J0, workingTransferCoefficientKey } from './working-branch.js';
+export type { WorkingBranchUncertainty } from './working-branch.js';
 export { fitArrhenius } from './arrhenius.js';
 export type { ArrheniusPoint, ArrheniusOptions, ArrheniusResult } from './arrhenius.js';
 export { AUTO_WINDOW_RULE, lowFieldLimit } from './window.js';

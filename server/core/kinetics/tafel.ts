@@ -39,6 +39,7 @@ import {
   rSquaredWarning,
 } from './warnings.js';
 import { AUTO_WINDOW_RULE, curvatureCheck, decadesOf, lowFieldLimit, selectAutoWindow, tafelLinearFit } from './window.js';
+import { tafelWorkingBranchUncertainty, type WorkingBranchUncertainty } from './working-branch.js';
 
 export interface TafelFitOptions {
   /** Temperature [K] (> 0). */
@@ -85,6 +86,12 @@ export interface TafelFitResult {
   statistics: FitStatistics;
   window: TafelWindow;
   correlation: { names: string[]; matrix: number[][] };
+  /**
+   * (ln j0, α) of the fitted branch with standard errors and correlation, by the delta
+   * method from the (a, b) covariance (working-branch.ts); absent when the fit could not
+   * separate its parameters.
+   */
+  workingBranchUncertainty?: WorkingBranchUncertainty;
   residuals: ResidualRecord[];
   curve: PolarizationPoint[];
   converged: boolean;
@@ -159,8 +166,11 @@ export function fitTafel(points: PolarizationPoint[], options: TafelFitOptions):
     positions = auto.positions;
     if (!auto.passed) {
       status = 'window-rule-not-met';
+      // The reasons are those of the widest candidate window, i.e. of the points fitted
+      // below (its R² is the statistics' R², unless it was tested on a strided subset).
+      const subset = auto.testedPoints < auto.positions.length ? ` (tested on an evenly spaced subset of ${auto.testedPoints} of them)` : '';
       warnings.push(
-        `No window met the automatic rule (${auto.reasons.join('; ')}). All ${auto.eligible} ${branch} point(s) with |η| ≥ ${(auto.lowFieldLimit * 1000).toFixed(0)} mV were fitted instead; check the warnings below or set the window by hand.`,
+        `No window met the automatic rule. The widest candidate, all ${auto.eligible} ${branch} point(s) with |η| ≥ ${(auto.lowFieldLimit * 1000).toFixed(0)} mV, fails it${subset}: ${auto.reasons.join('; ')}. These points were fitted instead; check the warnings below or set the window by hand.`,
       );
     }
     if (positions.length < p + 1) {
@@ -215,8 +225,12 @@ export function fitTafel(points: PolarizationPoint[], options: TafelFitOptions):
     return { currentDensity: pt.currentDensity, overpotential: pt.overpotential, fitted, residual: pt.overpotential - fitted, used: used.has(i) };
   });
 
-  // Statistics in η over the fitted points (residuals equal those of the linear fit up to sign).
-  const etaUsed = positions.map((k) => points[idx[k]].overpotential);
+  // Statistics in η over the fitted points (residuals equal those of the linear fit up to
+  // sign). R² is that of the overpotential after a KNOWN j·R_u is subtracted (the iR-corrected
+  // η of domain.md §2, the variable the line describes and the window rule tests): with the
+  // known drop left in, its spread would count as "explained" and inflate R². A fitted R_u is
+  // part of the model, so then η as given is used.
+  const etaUsed = positions.map((k) => points[idx[k]].overpotential - points[idx[k]].currentDensity * knownRu);
   const resUsed = positions.map((k) => points[idx[k]].overpotential - modelEta(points[idx[k]].currentDensity));
   const statistics = fitStatistics(resUsed, etaUsed, p);
 
@@ -250,7 +264,7 @@ export function fitTafel(points: PolarizationPoint[], options: TafelFitOptions):
   if (lowCount > 0) warnings.push(lowFieldWarning(lowCount, lowForWarning));
   if (decades < MIN_DECADES) warnings.push(narrowWindowWarning(decades));
   if (positions.length < MIN_POINTS) warnings.push(fewPointsWarning(positions.length));
-  if (fit.rSquared < MIN_R_SQUARED) warnings.push(rSquaredWarning(fit.rSquared));
+  if (statistics.rSquared < MIN_R_SQUARED) warnings.push(rSquaredWarning(statistics.rSquared, knownRu > 0));
   const curv = curvatureCheck(x, y, fitRu ? absJ : null);
   if (curv.riseSignificant && Math.abs(curv.rise) > MAX_SLOPE_RISE) warnings.push(curvatureWarning(curv.rise, 'window'));
   else if (curv.topSignificant && Math.abs(curv.topRise) > MAX_SLOPE_RISE) warnings.push(curvatureWarning(curv.topRise, 'top'));
@@ -265,7 +279,7 @@ export function fitTafel(points: PolarizationPoint[], options: TafelFitOptions):
     lowFieldLimit: lowLimit,
     decades,
   };
-  return {
+  const result: TafelFitResult = {
     model: 'tafel',
     branch,
     parameters: params,
@@ -278,6 +292,9 @@ export function fitTafel(points: PolarizationPoint[], options: TafelFitOptions):
     status,
     warnings,
   };
+  const working = aliasedAny ? undefined : tafelWorkingBranchUncertainty(a, b, cov, T, branch);
+  if (working) result.workingBranchUncertainty = working;
+  return result;
 }
 
 function safeCorrelation(fit: LinearFit): number[][] {

@@ -38,6 +38,11 @@ export interface ResidualRecord {
 export interface FitStatistics {
   points: number;
   degreesOfFreedom: number;
+  /**
+   * R² = 1 − RSS/TSS, TSS of the overpotential over the fitted points after subtracting a
+   * KNOWN j·R_u (the iR-corrected η of domain.md §2, the variable the kinetic law describes);
+   * with R_u fitted or zero, of η as given. The same R² is quoted by the warnings.
+   */
   rSquared: number;
   /** s = √(RSS/dof) [V]. */
   residualStandardDeviation: number;

@@ -36,8 +36,12 @@ export function curvatureWarning(rise: number, where: 'window' | 'top'): string 
   return `The local Tafel slope ${where === 'top' ? 'at the high-current end' : 'across the window'} is ${(-rise * 100).toFixed(0)} % shallower than the main trend: the data bend downward (a change of mechanism, surface changes or over-corrected iR). One straight line may not describe this window.`;
 }
 
-export function rSquaredWarning(r2: number): string {
-  return `R² = ${r2.toFixed(4)} is below ${MIN_R_SQUARED} (common rule of thumb for a straight Tafel line): the data scatter or bend within the window.`;
+/**
+ * R² of the fitted window (the statistics' R²) below the rule of thumb. `iRCorrected`: a
+ * known j·R_u was subtracted, and R² is that of the corrected overpotential.
+ */
+export function rSquaredWarning(r2: number, iRCorrected = false): string {
+  return `R² = ${r2.toFixed(4)}${iRCorrected ? ' (of the overpotential after subtracting the known j·R_u)' : ''} is below ${MIN_R_SQUARED} (common rule of thumb for a straight Tafel line): the data scatter or bend within the window.`;
 }
 
 export function fewPointsWarning(n: number): string {

@@ -219,6 +219,11 @@ export interface AutoWindowResult {
   reasons: string[];
   /** Number of points above the low-field limit. */
   eligible: number;
+  /**
+   * Points the window tests were run on for the reported window (the chosen one, or the widest
+   * candidate when none passed): all of them, or an evenly strided subset of MAX_TEST_POINTS.
+   */
+  testedPoints: number;
 }
 
 /**
@@ -248,7 +253,7 @@ export function selectAutoWindow(y: number[], x: number[], absJ: number[] | null
     }
   }
   let lastStart = -1;
-  let best: AutoWindowResult = { positions: [], lowFieldLimit: lowFieldLimit(temperatureK, 1), passed: false, reasons: [], eligible: 0 };
+  let best: AutoWindowResult = { positions: [], lowFieldLimit: lowFieldLimit(temperatureK, 1), passed: false, reasons: [], eligible: 0, testedPoints: 0 };
   for (let pass = 0; pass < MAX_WINDOW_PASSES; pass++) {
     const limit = lowFieldLimit(temperatureK, alphaHat);
     let start = y.findIndex((v) => v >= limit);
@@ -259,6 +264,8 @@ export function selectAutoWindow(y: number[], x: number[], absJ: number[] | null
     const firstEnd = start + MIN_POINTS - 1;
     let chosen: number[] | null = null;
     let widestFail: string[] = [];
+    let widestTested = 0;
+    let chosenTested = 0;
     let chosenSlope = NaN;
     const tryEnd = (end: number): boolean => {
       const pos: number[] = [];
@@ -276,9 +283,13 @@ export function selectAutoWindow(y: number[], x: number[], absJ: number[] | null
         chosen = [];
         for (let k = start; k <= end; k++) chosen.push(k);
         chosenSlope = t.slope;
+        chosenTested = pos.length;
         return true;
       }
-      if (widestFail.length === 0) widestFail = t.reasons;
+      if (widestFail.length === 0) {
+        widestFail = t.reasons;
+        widestTested = pos.length;
+      }
       return false;
     };
     // Scan candidate upper ends from the widest down. Short records: every end. Long
@@ -305,10 +316,10 @@ export function selectAutoWindow(y: number[], x: number[], absJ: number[] | null
     for (let k = start; k < y.length; k++) all.push(k);
     if (!chosen) {
       // Keep a window that passed on an earlier pass (the updated limit only added points).
-      if (!best.passed) best = { positions: all, lowFieldLimit: limit, passed: false, reasons: widestFail, eligible };
+      if (!best.passed) best = { positions: all, lowFieldLimit: limit, passed: false, reasons: widestFail, eligible, testedPoints: widestTested || all.length };
       break;
     }
-    best = { positions: chosen, lowFieldLimit: limit, passed: true, reasons: [], eligible };
+    best = { positions: chosen, lowFieldLimit: limit, passed: true, reasons: [], eligible, testedPoints: chosenTested };
     alphaHat = thermalVoltage(temperatureK) / chosenSlope;
     if (Math.abs(lowFieldLimit(temperatureK, alphaHat) - limit) < 1e-12) break;
   }
