@@ -4,11 +4,12 @@
  * (≈ 32 wt %). Every value is INVENTED for demonstration, chosen inside the orientation ranges
  * of ../shared/reference/check-values.md §9a (modern zero-gap cells ≈ 2.9–3.2 V at 5–6 kA/m²,
  * K ≈ 0.08–0.12 V per kA/m²; "from memory, low confidence" there). With these numbers the
- * cell model gives ≈ 2.94 V at the 5.5 kA/m² design point and K ≈ 0.09 V per kA/m².
+ * cell model gives ≈ 2.9–3.0 V at the 5.5 kA/m² design point and K ≈ 0.09 V per kA/m².
  *
- *  - Anode: coating A, Tafel parameters rounded from a Tafel fit (automatic window, R_u
- *    subtracted) of the example's 88 °C dataset "anode-a-88c"; standard errors and the
- *    ln j0–α correlation of that fit, rounded; Ea = the value the synthetic data were
+ *  - Anode: coating A, Tafel parameters from a Tafel fit (automatic window, known R_u
+ *    subtracted) of the example's 88 °C dataset "anode-a-88c", made here with the kinetics
+ *    core when the example is generated, with that fit's standard errors and ln j0–α
+ *    correlation (rounded to 4 significant digits); Ea = the value the synthetic data were
  *    generated with (35 kJ/mol).
  *  - Cathode: cathode C (activated Ni), likewise from "cathode-c-88c"; Ea 30 kJ/mol.
  *  - Membrane 0.55 Ω·cm² at 88 °C with an apparent activation energy of 15 kJ/mol (invented).
@@ -20,7 +21,46 @@
  *  - Sweep 0.5–7 kA/m² in 14 points; 95 % band from 2000 Monte Carlo draws, seed 42.
  * All numbers SI (the study-file convention).
  */
+import { readFileSync } from 'node:fs';
+import path from 'node:path';
+import { fitKinetics } from '../server/core/kinetics/index.js';
+import { SCENARIOS_DIR } from '../server/paths.js';
 import { celsiusToKelvin, toSI } from '../server/core/units.js';
+import type { Dataset } from '../server/scenario/schema.js';
+
+/** Round to 4 significant digits (the example file shows what an engineer would type). */
+function sig4(x: number): number {
+  return Number(x.toPrecision(4));
+}
+
+/**
+ * Tafel kinetics of one example dataset: η from the dataset's potentials (electrode potential
+ * minus the equilibrium potential on the same reference, or η as given), fitted with the
+ * automatic window and its known R_u subtracted.
+ */
+function fittedTafel(datasets: Dataset[], id: string, activationEnergy: number): Record<string, unknown> {
+  const d = datasets.find((x) => x.id === id);
+  if (!d) throw new Error(`example dataset ${id} missing`);
+  const points = d.points.map((p) => ({
+    currentDensity: p.currentDensity,
+    overpotential: d.potentialKind === 'electrode' ? p.potential - (d.equilibriumPotential ?? 0) : p.potential,
+  }));
+  const fit = fitKinetics({ points, model: 'tafel', temperature: d.temperature, electrons: d.electrons, window: 'auto', uncompensatedResistance: d.uncompensatedResistance });
+  const u = fit.workingBranchUncertainty;
+  if (!fit.converged || !u) throw new Error(`example fit of ${id} did not give a determined (ln j0, α) pair`);
+  return {
+    model: 'tafel',
+    exchangeCurrentDensity: sig4(Math.exp(u.lnExchangeCurrentDensity)),
+    transferCoefficient: sig4(u.transferCoefficient),
+    referenceTemperature: d.temperature,
+    activationEnergy,
+    uncertainty: {
+      lnExchangeCurrentDensitySE: sig4(u.lnExchangeCurrentDensitySE),
+      transferCoefficientSE: sig4(u.transferCoefficientSE),
+      correlation: sig4(u.correlation),
+    },
+  };
+}
 
 const T_CELL = celsiusToKelvin(88);
 
@@ -31,34 +71,22 @@ function sweep(): number[] {
   return out;
 }
 
+/** The datasets of the shipped example file (used when no freshly generated ones are passed). */
+function shippedDatasets(): Dataset[] {
+  const text = readFileSync(path.join(SCENARIOS_DIR, 'brackwater-pilot.study.json'), 'utf8');
+  return (JSON.parse(text) as { datasets: Dataset[] }).datasets;
+}
+
 /** The example study's cell definition, as the study's `cell` section. */
-export function exampleCell(): { cell: Record<string, unknown> } {
+export function exampleCell(datasets: Dataset[] = shippedDatasets()): { cell: Record<string, unknown> } {
   return {
     cell: {
       chemistry: 'chlor-alkali',
       temperature: T_CELL,
       pressure: toSI(1.2, 'pressure', 'bar'),
       composition: { brineNaCl: 3.6, causticNaOH: 11.8 },
-      anode: {
-        kinetics: {
-          model: 'tafel',
-          exchangeCurrentDensity: 75,
-          transferCoefficient: 1.85,
-          referenceTemperature: T_CELL,
-          activationEnergy: 35e3,
-          uncertainty: { lnExchangeCurrentDensitySE: 0.40, transferCoefficientSE: 0.19, correlation: -0.992 },
-        },
-      },
-      cathode: {
-        kinetics: {
-          model: 'tafel',
-          exchangeCurrentDensity: 18.6,
-          transferCoefficient: 1.38,
-          referenceTemperature: T_CELL,
-          activationEnergy: 30e3,
-          uncertainty: { lnExchangeCurrentDensitySE: 0.19, transferCoefficientSE: 0.052, correlation: -0.991 },
-        },
-      },
+      anode: { kinetics: fittedTafel(datasets, 'anode-a-88c', 35e3) },
+      cathode: { kinetics: fittedTafel(datasets, 'cathode-c-88c', 30e3) },
       ohmic: {
         membrane: { areaResistance: toSI(0.55, 'areaResistance', 'ohm*cm2'), referenceTemperature: T_CELL, activationEnergy: 15e3 },
         gaps: [
@@ -75,11 +103,11 @@ export function exampleCell(): { cell: Record<string, unknown> } {
       provenance: {
         anode: {
           kind: 'manual',
-          note: 'Coating A: rounded from a Tafel fit of dataset "Anode coating A, 88 °C" (automatic window, R_u subtracted); Ea from the synthetic data (fictional)',
+          note: 'Coating A: from a Tafel fit of dataset "Anode coating A, 88 °C" (automatic window, R_u subtracted); Ea from the synthetic data (fictional)',
         },
         cathode: {
           kind: 'manual',
-          note: 'Cathode C: rounded from a Tafel fit of dataset "Cathode C (activated Ni), 88 °C" (automatic window, R_u subtracted); Ea from the synthetic data (fictional)',
+          note: 'Cathode C: from a Tafel fit of dataset "Cathode C (activated Ni), 88 °C" (automatic window, R_u subtracted); Ea from the synthetic data (fictional)',
         },
       },
     },

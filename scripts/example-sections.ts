@@ -2,7 +2,8 @@
 import { exampleCell } from './example-cell.js';
 import { exampleEconomicsSections } from './example-economics.js';
 import { examplePlantSections } from './example-plant.js';
+import type { Dataset } from '../server/scenario/schema.js';
 
-export function buildExampleSections(): Record<string, unknown> {
-  return { ...exampleCell(), ...examplePlantSections(), ...exampleEconomicsSections() };
+export function buildExampleSections(datasets: Dataset[]): Record<string, unknown> {
+  return { ...exampleCell(datasets), ...examplePlantSections(), ...exampleEconomicsSections() };
 }

@@ -17,7 +17,7 @@ import normalFactory from '@stdlib/random-base-normal';
 import { butlerVolmerOverpotential, exchangeCurrentAtTemperature, type ButlerVolmerParams } from '../server/core/kinetics/models.js';
 import { thermalVoltage } from '../server/core/constants.js';
 import { celsiusToKelvin } from '../server/core/units.js';
-import { studySchema } from '../server/scenario/schema.js';
+import { datasetSchema, studySchema } from '../server/scenario/schema.js';
 import { SCENARIOS_DIR } from '../server/paths.js';
 import { buildExampleSections } from './example-sections.js';
 
@@ -130,7 +130,7 @@ const study = studySchema.parse({
   },
   datasets,
   fits: [],
-  ...buildExampleSections(),
+  ...buildExampleSections(datasetSchema.array().parse(datasets)),
 });
 
 const file = path.join(SCENARIOS_DIR, 'brackwater-pilot.study.json');
