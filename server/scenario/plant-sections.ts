@@ -61,9 +61,15 @@ export const shuntCircuitSchema = z.unknown().transform((raw, ctx): ShuntCircuit
   return parsed.data;
 });
 
+/**
+ * Most cells in series a shunt-current solve takes (project choice: beyond any bipolar
+ * electrolyser built; bounds the banded network solve of one request in time and memory).
+ */
+export const MAX_SHUNT_CELLS = 2000;
+
 export const plantShuntSchema = z.object({
   /** Cells in series in the electrolyser studied; default: the largest electrolyser of the sizing. */
-  cells: z.number().int().min(2).max(2000).optional(),
+  cells: z.number().int().min(2).max(MAX_SHUNT_CELLS).optional(),
   circuits: z.array(shuntCircuitSchema).min(1).max(8),
 });
 

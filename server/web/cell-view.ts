@@ -15,7 +15,7 @@ import type { CellSweepResult, ChemistryId, ProductId, SweepPoint } from '../cor
 import { CAUTIONS, SAFETY_DISCLAIMER, type Caution } from '../core/safety/cautions.js';
 import { fromSI, UNIT_TABLES } from '../core/units.js';
 import type { CellSection } from '../scenario/cell-section.js';
-import { assertFiniteTree } from './validate.js';
+import { firstNonFinite } from './validate.js';
 import { celsius, fixed, fmt } from './format.js';
 import { slopeFromAlpha, type ElectrodeOrigin, type ElectrodeRole } from './cell-form.js';
 
@@ -46,12 +46,10 @@ export function evaluateCell(section: CellSection, options: { strictBand: boolea
       out.bandNote = `No uncertainty band: ${err.issues[0]?.message ?? err.message}. Use fitted kinetics (datasets or saved fits), or enter standard errors by hand.`;
     }
   }
-  try {
-    assertFiniteTree(out.result, 'result');
-    if (out.band) assertFiniteTree(out.band.points, 'band');
-  } catch (err) {
-    // A non-finite number means the input drove a model outside its range: answer it, never send NaN.
-    throw new PhysicsError('(result)', `the model gave a non-finite value (${(err as Error).message}) for this input; check the inputs against the models' validity ranges`);
+  // A non-finite number means the input drove a model outside its range: answer it, never send NaN.
+  const at = firstNonFinite(out.result, 'result') ?? (out.band ? firstNonFinite(out.band.points, 'band') : null);
+  if (at !== null) {
+    throw new PhysicsError('(result)', `the model gave a non-finite value at ${at} for this input; check the inputs against the models' validity ranges`);
   }
   return out;
 }

@@ -291,9 +291,8 @@ export function runCostStudy(request: CostRequest, study?: Study): CostResponse 
 
   let closedForm: ClosedFormOut | null = null;
   let closedFormNote: string;
-  if (performance.kind === 'linear' && performance.slope > 0) {
-    const value = closedFormEconomicCurrentDensity(input);
-    if (value === null) throw new Error('closed form expected for a linear cell with K > 0');
+  const value = performance.kind === 'linear' && performance.slope > 0 ? closedFormEconomicCurrentDensity(input) : null;
+  if (performance.kind === 'linear' && value !== null && Number.isFinite(value) && value > 0) {
     closedForm = {
       economicCurrentDensity: value,
       formula: 'j* = √(C·CRF / (p·K·H))',
@@ -309,6 +308,9 @@ export function runCostStudy(request: CostRequest, study?: Study): CostResponse 
     };
     closedFormNote = 'Linear cell with constant current efficiency: U0 and CE drop out, and the numeric optimum should match the closed form.';
     if (!closedForm.insideSearchRange) warnings.push('The closed-form economic current density lies outside the searched range.');
+  } else if (performance.kind === 'linear' && performance.slope > 0) {
+    // A K-factor so near 0 (or prices so extreme) that √(C·CRF/(p·K·H)) leaves the float range.
+    closedFormNote = 'The closed form j* = √(C·CRF/(p·K·H)) is out of numeric range for these inputs (K-factor near 0); the optimum is found numerically only.';
   } else if (performance.kind === 'linear') {
     closedFormNote = 'K = 0: with no resistive rise the cost falls with current density without limit; no closed form.';
   } else {

@@ -103,12 +103,15 @@ function sendCsv(res: Response, name: string, text: string): void {
   res.send(text);
 }
 
-/** Page error: 400 with the error box; a 5xx is re-thrown to the app's error handler. */
+/**
+ * Page error: 400 with the error box (a 422 "did not converge" from inputs far out of range is
+ * an input problem on a page too); a 5xx is re-thrown to the app's error handler.
+ */
 function pageError(err: unknown, page: 'costs' | 'coatings'): { status: number; error: { message: string; issues: Array<{ path: string; message: string }> }; fields: string[] } {
   const mapped = relabel(err, page);
   const { status, body } = describeError(mapped);
   if (status >= 500) throw err;
-  return { status, error: body.error, fields: mapped instanceof FormError ? mapped.fields : [] };
+  return { status: status === 422 ? 400 : status, error: body.error, fields: mapped instanceof FormError ? mapped.fields : [] };
 }
 
 /** Coatings and Costs pages and their JSON API. */

@@ -34,7 +34,11 @@ export function describeError(err: unknown): { status: number; body: ErrorBody }
     return { status: 400, body: { error: { message: 'Malformed JSON in request body.', issues: [{ path: '(body)', message: 'not valid JSON' }] } } };
   }
   if (e && typeof e.status === 'number' && e.status >= 400 && e.status < 500) {
-    return { status: e.status, body: { error: { message: e.message ?? 'Bad request', issues: [] } } };
+    // Other refusals of the body parsers (bad encoding or charset, too many fields, aborted
+    // upload…): they concern the body as a whole, so the issue names "(body)".
+    const reason = e.message || 'bad request';
+    const message = e.type ? `The request body could not be read: ${reason}.` : reason;
+    return { status: e.status, body: { error: { message, issues: [{ path: '(body)', message: reason }] } } };
   }
   return { status: 500, body: { error: { message: 'Internal error. The problem has been logged.', issues: [] } } };
 }

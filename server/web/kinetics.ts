@@ -17,7 +17,7 @@ import type { Study } from '../scenario/schema.js';
 import type { StudyStore } from '../scenario/store.js';
 import { describeError } from './errors.js';
 import { pageContext, type PageContext } from './page.js';
-import { assertFiniteTree } from './validate.js';
+import { firstNonFinite } from './validate.js';
 import { fmt } from './format.js';
 import {
   buildCharts,
@@ -59,6 +59,16 @@ const numberMessage = (what: string) => ({
       : `${what} must be a finite number (got ${issue.input === null ? 'null' : typeof issue.input === 'number' ? String(issue.input) : typeof issue.input})`,
 });
 
+/**
+ * Temperatures the API accepts, K: the Kinetics page's range (MIN_TEMPERATURE_C to
+ * MAX_TEMPERATURE_C in ./kinetics-view.ts, liquid electrolytes; project choice), so 1e6 K or a
+ * temperature typed in °C below −50 is refused with the reason instead of fitted.
+ */
+const MIN_TEMPERATURE_K = celsiusToKelvin(MIN_TEMPERATURE_C);
+const MAX_TEMPERATURE_K = celsiusToKelvin(MAX_TEMPERATURE_C);
+const temperatureRange = `must be an absolute temperature from ${MIN_TEMPERATURE_K.toFixed(2)} to ${MAX_TEMPERATURE_K.toFixed(2)} K (${MIN_TEMPERATURE_C} to ${MAX_TEMPERATURE_C} °C)`;
+const temperatureSchema = (what: string) => z.number(numberMessage(what)).min(MIN_TEMPERATURE_K, temperatureRange).max(MAX_TEMPERATURE_K, temperatureRange);
+
 const pointSchema = z.object({
   currentDensity: z.number(numberMessage('current density [A/m²]')),
   overpotential: z.number(numberMessage('overpotential [V]')),
@@ -82,7 +92,7 @@ export const fitRequestSchema = z
       .min(1, 'no points given; a fit needs data')
       .max(MAX_POINTS, `at most ${MAX_POINTS} points are accepted; thin the record first`),
     model: z.enum(['tafel', 'butler-volmer'], { error: "must be 'tafel' or 'butler-volmer'" }),
-    temperature: z.number(numberMessage('temperature [K]')).positive('must be an absolute temperature > 0 K'),
+    temperature: temperatureSchema('temperature [K]'),
     electrons: z.number(numberMessage('electrons')).int('must be a whole number').min(1).max(8).optional(),
     window: windowSchema.optional(),
     uncompensatedResistance: z.union([z.literal('fit'), z.number().min(0)], { error: "must be an area resistance ≥ 0 Ω·m² or 'fit'" }).optional(),
@@ -136,7 +146,7 @@ export const arrheniusRequestSchema = z.strictObject({
   fits: z
     .array(
       z.object({
-        temperature: z.number(numberMessage('temperature [K]')).positive('must be an absolute temperature > 0 K'),
+        temperature: temperatureSchema('temperature [K]'),
         exchangeCurrentDensity: z.number(numberMessage('exchange current density [A/m²]')).positive('must be > 0 A/m²'),
         standardError: z.number(numberMessage('standard error [A/m²]')).positive('must be > 0 A/m²').optional(),
       }),
@@ -144,16 +154,13 @@ export const arrheniusRequestSchema = z.strictObject({
     )
     .min(2, 'need j0 at two or more temperatures')
     .max(1000, 'at most 1000 fits'),
-  referenceTemperature: z.number(numberMessage('reference temperature [K]')).positive('must be an absolute temperature > 0 K').optional(),
+  referenceTemperature: temperatureSchema('reference temperature [K]').optional(),
 });
 
 /** Refuse to answer 200 with NaN/Infinity anywhere in the body. */
 function finiteOrFail<T>(value: T, what: string): T {
-  try {
-    assertFiniteTree(value);
-  } catch (err) {
-    throw new ConvergenceError(`${what} produced a non-finite number (${(err as Error).message}); no result is returned`);
-  }
+  const at = firstNonFinite(value);
+  if (at !== null) throw new ConvergenceError(`${what} produced a non-finite number (at ${at}); no result is returned`);
   return value;
 }
 
@@ -530,8 +537,9 @@ export function kineticsRouter(store: StudyStore): Router {
         }
       }
       const fields = (err as { fields?: string[] }).fields ?? [];
-      // After a failed upload the body holds the fields read so far.
-      renderPage(req, res, ctx, { form: form ?? readForm(req.body), error: err, invalid: fields }, status);
+      // After a failed upload the body holds the fields read so far. A fit these data and
+      // options cannot give (422 for the API) is an input problem on the page: 400.
+      renderPage(req, res, ctx, { form: form ?? readForm(req.body), error: err, invalid: fields }, status === 422 ? 400 : status);
     }
   });
 

@@ -8,7 +8,7 @@ import { z } from 'zod';
 import { solveShuntCurrents, type ProductId } from '../core/plant/index.js';
 import type { StudyStore } from '../scenario/store.js';
 import type { Study } from '../scenario/schema.js';
-import { rectifierSchema, shuntCircuitSchema, plantProductSchema, type PlantSection } from '../scenario/plant-sections.js';
+import { MAX_SHUNT_CELLS, rectifierSchema, shuntCircuitSchema, plantProductSchema, type PlantSection } from '../scenario/plant-sections.js';
 import { cellSourceSchema, isLinearSource, plantChemistryOf } from './cell-source.js';
 import { describeError } from './errors.js';
 import { pageContext } from './page.js';
@@ -79,7 +79,7 @@ export const sizeRequestSchema = z
 
 /** Body of POST /api/v1/plant/shunt (SI: A, V, Ω; or geometry m, m² and conductivity S/m). */
 export const shuntRequestSchema = z.object({
-  cells: z.number().int('must be a whole number').min(2, 'must be at least 2 (shunt paths need two cells in series)').max(2000, 'must be at most 2000'),
+  cells: z.number().int('must be a whole number').min(2, 'must be at least 2 (shunt paths need two cells in series)').max(MAX_SHUNT_CELLS, `must be at most ${MAX_SHUNT_CELLS}`),
   cellCurrent: positive,
   cellVoltage: positive,
   cellResistance: positive,
@@ -137,7 +137,8 @@ function sizeResponse(b: z.infer<typeof sizeRequestSchema>) {
     activeArea: s.operating.activeArea,
     cells: s.cells.total,
     electrolysers: s.electrolysers.count,
-    cellsPerElectrolyser: Math.max(...s.electrolysers.cellsEach),
+    // A loop, not Math.max(...list): a list of many electrolysers would overflow the call stack.
+    cellsPerElectrolyser: s.electrolysers.cellsEach.reduce((a, b) => Math.max(a, b), 0),
     cellsPerElectrolyserList: s.electrolysers.cellsEach,
     operatingCurrentDensity: s.operating.currentDensity,
     cellVoltage: s.operating.cellVoltage,

@@ -9,9 +9,11 @@ import Papa from 'papaparse';
 import { Decimal } from 'decimal.js';
 import { InputError, PhysicsError, type IssueDetail } from '../core/errors.js';
 import { UNIT_TABLES, fromSI, toSI } from '../core/units.js';
+import { FARADAY } from '../core/constants.js';
 import {
   PRODUCT_SPECS,
   electrolytePathResistance,
+  evaluateCell,
   sizePlant,
   solveShuntCurrents,
   type CellPerformance,
@@ -24,7 +26,7 @@ import {
   type SizingResult,
 } from '../core/plant/index.js';
 import type { Study } from '../scenario/schema.js';
-import { plantSectionSchema, type PlantProduct, type PlantSection, type ShuntCircuitInput } from '../scenario/plant-sections.js';
+import { MAX_SHUNT_CELLS, plantSectionSchema, type PlantProduct, type PlantSection, type ShuntCircuitInput } from '../scenario/plant-sections.js';
 import { cellAreaResistanceAt, cellSourceSchema, plantChemistryOf, toCellPerformance, type CellSource } from './cell-source.js';
 import { describeError, zodIssues } from './errors.js';
 import { fixed, fmt } from './format.js';
@@ -140,12 +142,49 @@ export interface SizingRun {
 }
 
 /**
+ * Most cells one sizing may give (project choice): 1e6 cells is about 25 GW of 3 m² water
+ * electrolysis cells at 4 kA/m² and 2 V, beyond any plant built. The core lays out every
+ * electrolyser, so without a bound one request with absurd units (say 100 kg/s at 1 A/m² on
+ * 10 cm² cells) would exhaust the server's memory.
+ */
+export const MAX_PLANT_CELLS = 1_000_000;
+/**
+ * Smallest target accepted, as a fraction of what one cell makes at the design point
+ * (project choice, 1e-6): below it the "plant" is one cell idling at under a millionth of its
+ * design current density, which no sizing question asks.
+ */
+export const MIN_CELL_FRACTION = 1e-6;
+
+/**
+ * Front-door check of the plant's scale before the core lays it out: cells needed at the
+ * design point, N = ṁ·z·F / (M·CE·j·A_cell) (Faraday's law; ṁ kg/s, z electrons per molecule,
+ * F C/mol, M kg/mol, CE fraction, j A/m², A_cell m²). Throws InputError on the target's path
+ * (`target.massRate`, renamed by the caller) when N is not finite, above MAX_PLANT_CELLS or
+ * below MIN_CELL_FRACTION.
+ */
+function checkPlantScale(req: SizingRequest, performance: CellPerformance): void {
+  const spec = PRODUCT_SPECS[req.product];
+  const chargeRate = (req.productionRate * spec.electronsPerMolecule * FARADAY.value) / spec.molarMass;
+  const { currentEfficiency } = evaluateCell(performance, req.currentDensity, 'cell');
+  const cellsExact = chargeRate / currentEfficiency / (req.currentDensity * req.cellArea);
+  const at = `cells of ${req.cellArea.toPrecision(3)} m² at ${req.currentDensity.toPrecision(3)} A/m²`;
+  if (!(cellsExact <= MAX_PLANT_CELLS)) {
+    const count = Number.isFinite(cellsExact) ? `about ${cellsExact.toPrecision(3)}` : 'more';
+    throw new InputError('target.massRate', `the target needs ${count} ${at}, above the ${MAX_PLANT_CELLS} cells a sizing handles; check the units of the production rate, current density and cell area`);
+  }
+  if (!(cellsExact >= MIN_CELL_FRACTION)) {
+    throw new InputError('target.massRate', `the target is below a millionth of what one cell makes (${at}); check the units of the production rate, current density and cell area`);
+  }
+}
+
+/**
  * Size the plant (core sizePlant) for an SI request. Errors keep the core's reason with the
  * path renamed by `paths` (API body or page form names).
  */
 export function runSizing(req: SizingRequest, paths: Record<string, string>): SizingRun {
   try {
     const performance = toCellPerformance(req.cell, req.currentEfficiency, 'cell', req.product);
+    checkPlantScale(req, performance);
     const sizing = sizePlant({
       chemistry: req.chemistry,
       target: { product: req.product, massRate: req.productionRate },
@@ -594,6 +633,8 @@ export function computePlant(section: PlantSection, study: Study): PlantComputat
     shuntNote = 'No electrolyte circuits given: enter channel and manifold resistances (or geometry and conductivity) to compute the shunt currents.';
   } else if (cells < 2) {
     shuntNote = `The electrolyser has ${cells} cell; shunt currents need at least 2 cells in series.`;
+  } else if (cells > MAX_SHUNT_CELLS) {
+    shuntNote = `The largest electrolyser has ${cells} cells in series; shunt currents are computed for at most ${MAX_SHUNT_CELLS}: enter the cells in series to study.`;
   } else {
     try {
       const areaResistance = cellAreaResistanceAt(performance, sizing.operating.currentDensity, 'cellSource');

@@ -6,7 +6,28 @@ import { parseStudyText, type StudyStore } from '../scenario/store.js';
 import { describeError } from './errors.js';
 import { pageContext } from './page.js';
 
-const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: 5 * 1024 * 1024, files: 1 } });
+/** Largest study file accepted by the upload form (bytes). */
+const MAX_STUDY_UPLOAD_BYTES = 5 * 1024 * 1024;
+const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: MAX_STUDY_UPLOAD_BYTES, files: 1 } });
+
+/** Run multer inside the handler so its refusals (file too large, wrong field, two files) become page errors. */
+function readUpload(req: Request, res: Response): Promise<void> {
+  return new Promise((resolve, reject) => {
+    upload.single('studyFile')(req, res, (err: unknown) => {
+      if (!err) return resolve();
+      if (err instanceof multer.MulterError) {
+        const reason =
+          err.code === 'LIMIT_FILE_SIZE'
+            ? `the file is larger than ${MAX_STUDY_UPLOAD_BYTES / (1024 * 1024)} MB`
+            : err.code === 'LIMIT_UNEXPECTED_FILE' || err.code === 'LIMIT_FILE_COUNT'
+              ? 'send one study file, in the field "studyFile"'
+              : err.message;
+        return reject(new InputError('studyFile', reason));
+      }
+      reject(err);
+    });
+  });
+}
 
 function fileNameFor(name: string): string {
   const slug = name.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-+|-+$/g, '') || 'study';
@@ -31,8 +52,9 @@ export function studyRouter(store: StudyStore): Router {
     res.send(JSON.stringify(study, null, 2) + '\n');
   });
 
-  r.post('/studies/upload', upload.single('studyFile'), (req, res) => {
+  r.post('/studies/upload', async (req, res) => {
     try {
+      await readUpload(req, res);
       const text = req.file ? req.file.buffer.toString('utf8') : typeof req.body?.studyText === 'string' ? req.body.studyText : '';
       if (!text.trim()) throw new InputError('studyFile', 'choose a .study.json file or paste its text');
       const study = parseStudyText(text);
