@@ -12,22 +12,15 @@
  * The cells are invented demonstration values (clearly fictional), not plant data.
  * Run: npx tsx bench/cell.ts
  */
-import { performance } from 'node:perf_hooks';
 import { sweepCell } from '../server/core/cell/sweep.js';
 import { voltageBand } from '../server/core/cell/uncertainty.js';
 import type { CellDefinition } from '../server/core/cell/types.js';
+import { median, round, timedRuns } from './timing.js';
 
 /** Repeat each case for at least this long (ms) and at least MIN_REPEATS times. */
 const MIN_TIME_MS = 1500;
 const MIN_REPEATS = 5;
 const MAX_REPEATS = 2000;
-
-function median(v: number[]): number {
-  const s = [...v].sort((a, b) => a - b);
-  const k = s.length >> 1;
-  return s.length % 2 ? s[k] : 0.5 * (s[k - 1] + s[k]);
-}
-const round = (v: number, d: number) => Math.round(v * 10 ** d) / 10 ** d;
 
 function linspace(lo: number, hi: number, n: number): number[] {
   return Array.from({ length: n }, (_, i) => lo + ((hi - lo) * i) / (n - 1));
@@ -101,14 +94,7 @@ function chlorAlkaliCompeting(n: number): CellDefinition {
 
 function run(name: string, n: number, targetMs: number | null, fn: () => unknown, extra: Record<string, unknown> = {}): void {
   fn(); // warm-up (JIT)
-  const times: number[] = [];
-  const t0 = performance.now();
-  while (times.length < MIN_REPEATS || performance.now() - t0 < MIN_TIME_MS) {
-    const a = performance.now();
-    fn();
-    times.push(performance.now() - a);
-    if (times.length >= MAX_REPEATS) break;
-  }
+  const times = timedRuns(fn, { minRuns: MIN_REPEATS, minMs: MIN_TIME_MS, maxRuns: MAX_REPEATS });
   const med = median(times);
   process.stdout.write(
     JSON.stringify({

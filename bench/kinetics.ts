@@ -22,6 +22,7 @@ import { fitButlerVolmer } from '../server/core/kinetics/butler-volmer.js';
 import { butlerVolmerOverpotential } from '../server/core/kinetics/models.js';
 import { fitTafel } from '../server/core/kinetics/tafel.js';
 import { bvPoints, logSpaced } from '../test/kinetics/synthetic.js';
+import { median, round, timedRuns } from './timing.js';
 
 const T = 298.15;
 const MIN_TIME_MS = 1500;
@@ -31,28 +32,15 @@ const MAX_RUNS = 2000;
 const WARMUP_RUNS = 10;
 const WARMUP_MS = 300;
 
-function median(v: number[]): number {
-  const s = [...v].sort((a, b) => a - b);
-  const k = s.length >> 1;
-  return s.length % 2 ? s[k] : 0.5 * (s[k - 1] + s[k]);
-}
 function percentile10(v: number[]): number {
   const s = [...v].sort((a, b) => a - b);
   return s[Math.floor(0.1 * (s.length - 1))];
 }
-const round = (v: number, d: number) => Math.round(v * 10 ** d) / 10 ** d;
 
 function time(name: string, fn: () => unknown, extra: Record<string, unknown> = {}, minMs = MIN_TIME_MS): void {
   const w0 = performance.now();
   for (let k = 0; k < WARMUP_RUNS || performance.now() - w0 < WARMUP_MS; k++) fn(); // warm-up (JIT)
-  const times: number[] = [];
-  const t0 = performance.now();
-  while (times.length < MIN_RUNS || performance.now() - t0 < minMs) {
-    const a = performance.now();
-    fn();
-    times.push(performance.now() - a);
-    if (times.length >= MAX_RUNS) break;
-  }
+  const times = timedRuns(fn, { minRuns: MIN_RUNS, minMs, maxRuns: MAX_RUNS });
   process.stdout.write(
     JSON.stringify({ case: name, msMedian: round(median(times), 3), msP10: round(percentile10(times), 3), runs: times.length, load1: round(loadavg()[0], 2), ...extra }) + '\n',
   );

@@ -16,20 +16,14 @@
 import { performance } from 'node:perf_hooks';
 import { levenbergMarquardt } from '../server/core/numerics/index.js';
 import { loadNonlinearDataset, lre, STRD_MODELS, STRD_NONLINEAR_NAMES, strdProblem } from '../test/fixtures/strd-models.js';
+import { median, round, timedRuns } from './timing.js';
 
 const CAP = 11;
 const OPTIONS = { ftol: 1e-15, xtol: 1e-15, gtol: 1e-15, maxEvaluations: 10_000 };
 /** Repeat each fit for at least this long (ms) and at least MIN_REPEATS times. */
 const MIN_TIME_MS = 40;
 const MIN_REPEATS = 5;
-
-function median(v: number[]): number {
-  const s = [...v].sort((a, b) => a - b);
-  const k = s.length >> 1;
-  return s.length % 2 ? s[k] : 0.5 * (s[k - 1] + s[k]);
-}
-
-const round = (v: number, d: number) => Math.round(v * 10 ** d) / 10 ** d;
+const MAX_REPEATS = 1000;
 
 // Warm-up so the first datasets are not timed while the JIT compiles the solver.
 {
@@ -42,14 +36,7 @@ for (const name of STRD_NONLINEAR_NAMES) {
   for (const start of [1, 2] as const) {
     const problem = strdProblem(ds, start);
     const fit = levenbergMarquardt(problem, OPTIONS);
-    const times: number[] = [];
-    const t0 = performance.now();
-    while (times.length < MIN_REPEATS || performance.now() - t0 < MIN_TIME_MS) {
-      const a = performance.now();
-      levenbergMarquardt(problem, OPTIONS);
-      times.push(performance.now() - a);
-      if (times.length >= 1000) break;
-    }
+    const times = timedRuns(() => levenbergMarquardt(problem, OPTIONS), { minRuns: MIN_REPEATS, minMs: MIN_TIME_MS, maxRuns: MAX_REPEATS });
     const c = ds.certified;
     const minLRE = Math.min(...fit.parameters.map((v, j) => lre(v, c.parameters[j], CAP)));
     const sdLRE = Math.min(...fit.standardErrors.map((v, j) => lre(v, c.standardDeviations[j], CAP)));

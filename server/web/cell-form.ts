@@ -1223,6 +1223,7 @@ export function startingForm(study: Study, chemistry: ChemistryId = study.chemis
   const base = STARTING_VALUES[chemistry];
   const comp = study.chemistry === chemistry ? study.operating.composition : {};
   const form: CellForm = {
+    ...COMMON_START_VALUES,
     ...base,
     anode: { ...blankElectrode(), ...base.anode },
     cathode: { ...blankElectrode(), ...base.cathode },
@@ -1245,8 +1246,27 @@ export function startingForm(study: Study, chemistry: ChemistryId = study.chemis
   return form;
 }
 
-/** Starting form values per chemistry (see startingForm; invented placeholders, from memory). */
-const STARTING_VALUES: Record<ChemistryId, Omit<CellForm, 'anode' | 'cathode' | 'gaps'> & {
+/**
+ * Starting form values every chemistry shares: optional fields blank, a constant current
+ * efficiency, the default uncertainty band (see startingForm; invented placeholders, from memory).
+ */
+const COMMON_START_VALUES = {
+  reversibleOverride: '',
+  membraneRefTempC: '',
+  membraneEa: '',
+  membraneThickness: '',
+  membraneConductivity: '',
+  ceModel: 'constant',
+  ceParasitic: '',
+  ceSaved: '',
+  rectifierEfficiency: '97',
+  band: true,
+  bandSamples: String(DEFAULT_SAMPLES),
+  bandSeed: String(DEFAULT_SEED),
+} as const satisfies Partial<CellForm>;
+
+/** Starting form values per chemistry, besides COMMON_START_VALUES (invented placeholders, from memory). */
+const STARTING_VALUES: Record<ChemistryId, Omit<CellForm, 'anode' | 'cathode' | 'gaps' | keyof typeof COMMON_START_VALUES> & {
   anode: Partial<ElectrodeForm>;
   cathode: Partial<ElectrodeForm>;
   gaps: Array<Partial<GapForm>>;
@@ -1259,31 +1279,19 @@ const STARTING_VALUES: Record<ChemistryId, Omit<CellForm, 'anode' | 'cathode' | 
     brineNaCl: '3.6',
     causticNaOH: '11.8',
     koh: '',
-    reversibleOverride: '',
     anode: { model: 'tafel', slopeMode: 'slope', tafelSlope: '36', j0: '60' },
     cathode: { model: 'tafel', slopeMode: 'slope', tafelSlope: '55', j0: '20' },
     membraneMode: 'asr',
     membraneAsr: '0.55',
-    membraneRefTempC: '',
-    membraneEa: '',
-    membraneThickness: '',
-    membraneConductivity: '',
     springerThickness: '',
     springerLambda: '',
     gaps: [{ thickness: '0.3', mode: 'electrolyte', electrolyte: 'NaCl', voidFraction: '0.35' }],
     hardware: '0.05',
-    ceModel: 'constant',
     ceValue: '96',
-    ceParasitic: '',
-    ceSaved: '',
     jMin: '0.5',
     jMax: '7',
     jSteps: '14',
     jDesign: '5.5',
-    rectifierEfficiency: '97',
-    band: true,
-    bandSamples: String(DEFAULT_SAMPLES),
-    bandSeed: String(DEFAULT_SEED),
   },
   'alkaline-water': {
     chemistry: 'alkaline-water',
@@ -1293,31 +1301,19 @@ const STARTING_VALUES: Record<ChemistryId, Omit<CellForm, 'anode' | 'cathode' | 
     brineNaCl: '',
     causticNaOH: '',
     koh: '30',
-    reversibleOverride: '',
     anode: { model: 'tafel', slopeMode: 'slope', tafelSlope: '50', j0: '0.01' },
     cathode: { model: 'tafel', slopeMode: 'slope', tafelSlope: '70', j0: '10' },
     membraneMode: 'asr',
     membraneAsr: '0.25',
-    membraneRefTempC: '',
-    membraneEa: '',
-    membraneThickness: '',
-    membraneConductivity: '',
     springerThickness: '',
     springerLambda: '',
     gaps: [{ thickness: '1', mode: 'electrolyte', electrolyte: 'KOH', voidFraction: '0.2' }],
     hardware: '0.05',
-    ceModel: 'constant',
     ceValue: '99',
-    ceParasitic: '',
-    ceSaved: '',
     jMin: '0.5',
     jMax: '8',
     jSteps: '16',
     jDesign: '4',
-    rectifierEfficiency: '97',
-    band: true,
-    bandSamples: String(DEFAULT_SAMPLES),
-    bandSeed: String(DEFAULT_SEED),
   },
   'pem-water': {
     chemistry: 'pem-water',
@@ -1327,31 +1323,19 @@ const STARTING_VALUES: Record<ChemistryId, Omit<CellForm, 'anode' | 'cathode' | 
     brineNaCl: '',
     causticNaOH: '',
     koh: '',
-    reversibleOverride: '',
     anode: { model: 'tafel', slopeMode: 'slope', tafelSlope: '45', j0: '0.001' },
     cathode: { model: 'tafel', slopeMode: 'slope', tafelSlope: '60', j0: '10' },
     membraneMode: 'springer',
     membraneAsr: '',
-    membraneRefTempC: '',
-    membraneEa: '',
-    membraneThickness: '',
-    membraneConductivity: '',
     springerThickness: '127',
     springerLambda: '22',
     gaps: [],
     hardware: '0.1',
-    ceModel: 'constant',
     ceValue: '99',
-    ceParasitic: '',
-    ceSaved: '',
     jMin: '1',
     jMax: '30',
     jSteps: '15',
     jDesign: '20',
-    rectifierEfficiency: '97',
-    band: true,
-    bandSamples: String(DEFAULT_SAMPLES),
-    bandSeed: String(DEFAULT_SEED),
   },
 };
 

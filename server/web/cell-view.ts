@@ -241,18 +241,28 @@ function voltageChart(ev: CellEvaluation): object {
       order: 0,
     });
   }
+  return sweepLineChart('Cell voltage and its parts (stacked)', datasets, {
+    y: { type: 'linear', stacked: true, min: voltageAxisMin(result.reversiblePotential), title: { display: true, text: 'Voltage / V' } },
+  }, { reverseLegend: true });
+}
+
+/**
+ * Chart.js line chart of a current-density sweep: x in kA/m², the given y scales beside it,
+ * title on top and legend below (reversed for stacked parts, so it reads top to bottom).
+ */
+function sweepLineChart(title: string, datasets: object[], yScales: Record<string, object>, opts: { reverseLegend?: boolean } = {}): object {
   return {
     type: 'line',
     data: { datasets },
     options: {
       interaction: { mode: 'nearest', intersect: false },
       plugins: {
-        title: { display: true, text: 'Cell voltage and its parts (stacked)' },
-        legend: { position: 'bottom', reverse: true, labels: { boxWidth: 14 } },
+        title: { display: true, text: title },
+        legend: { position: 'bottom', ...(opts.reverseLegend ? { reverse: true } : {}), labels: { boxWidth: 14 } },
       },
       scales: {
         x: { type: 'linear', title: { display: true, text: 'Current density / kA/m²' } },
-        y: { type: 'linear', stacked: true, min: voltageAxisMin(result.reversiblePotential), title: { display: true, text: 'Voltage / V' } },
+        ...yScales,
       },
     },
   };
@@ -309,22 +319,10 @@ function efficiencyChart(ev: CellEvaluation): object {
     }
   });
   const unit = ENERGY_DISPLAY[result.chemistry][0].unit;
-  return {
-    type: 'line',
-    data: { datasets },
-    options: {
-      interaction: { mode: 'nearest', intersect: false },
-      plugins: {
-        title: { display: true, text: 'Current efficiency and specific energy' },
-        legend: { position: 'bottom', labels: { boxWidth: 14 } },
-      },
-      scales: {
-        x: { type: 'linear', title: { display: true, text: 'Current density / kA/m²' } },
-        ce: { type: 'linear', position: 'left', title: { display: true, text: 'Current efficiency / %' } },
-        w: { type: 'linear', position: 'right', grid: { drawOnChartArea: false }, title: { display: true, text: `Specific energy / ${unit}` } },
-      },
-    },
-  };
+  return sweepLineChart('Current efficiency and specific energy', datasets, {
+    ce: { type: 'linear', position: 'left', title: { display: true, text: 'Current efficiency / %' } },
+    w: { type: 'linear', position: 'right', grid: { drawOnChartArea: false }, title: { display: true, text: `Specific energy / ${unit}` } },
+  });
 }
 
 function energyRows(p: SweepPoint, chemistry: ChemistryId, bandPoint: VoltageBandResult['points'][number] | undefined, mainProduct: ProductId | undefined): Row[] {

@@ -41,6 +41,7 @@
  * section; an example study is copied (303 to the copy).
  */
 import { Router, type Request, type Response } from 'express';
+import type { CoatingsRequest, CostRequest } from '../scenario/economics-sections.js';
 import type { Study } from '../scenario/schema.js';
 import type { StudyStore } from '../scenario/store.js';
 import { describeError } from './errors.js';
@@ -73,10 +74,12 @@ import {
   studyCellSource,
   type CoatingsForm,
   type CoatingsView,
+  type CompareResponse,
+  type CostResponse,
   type CostsForm,
   type CostsView,
 } from './economics-view.js';
-import { pageContext } from './page.js';
+import { pageContext, type PageContext } from './page.js';
 import { safetyPanelFor } from './safety-view.js';
 
 function studyFromQuery(req: Request, store: StudyStore): Study | undefined {
@@ -114,6 +117,144 @@ function pageError(err: unknown, page: 'costs' | 'coatings'): { status: number; 
   return { status: status === 422 ? 400 : status, error: body.error, fields: mapped instanceof FormError ? mapped.fields : [] };
 }
 
+interface PageOptions<Form, View> {
+  form: Form;
+  view: View | null;
+  status?: number;
+  error?: unknown;
+  fields?: string[];
+  notice?: string | null;
+}
+
+/**
+ * What tells the Costs and Coatings pages apart. Both follow one flow: GET shows the study's
+ * saved section computed (or the default form), POST computes, downloads CSV or saves.
+ */
+interface EconomicsPage<Form, Req, Result, View> {
+  name: 'costs' | 'coatings';
+  title: string;
+  savedNotice: string;
+  /** Template locals only this page uses. */
+  locals: (ctx: PageContext) => Record<string, unknown>;
+  saved: (study: Study) => Req | undefined;
+  withSaved: (study: Study, request: Req) => Study;
+  defaultForm: (study: Study, hasCell: boolean) => Form;
+  formFromRequest: (request: Req, study: Study, hasCell: boolean) => Form;
+  requestFromForm: (form: Form, study: Study, hasCell: boolean) => Req;
+  run: (request: Req, study: Study) => Result;
+  view: (result: Result) => View;
+  csv: (result: Result, studyName: string) => string;
+}
+
+const COSTS_PAGE: EconomicsPage<CostsForm, CostRequest, CostResponse, CostsView> = {
+  name: 'costs',
+  title: 'Costs',
+  savedNotice: 'Cost study saved to this study.',
+  locals: () => ({ labels: COSTS_LABELS }),
+  saved: (study) => study.costs,
+  withSaved: (study, costs) => ({ ...study, costs }),
+  defaultForm: defaultCostsForm,
+  formFromRequest: (request, _study, hasCell) => costsFormFromRequest(request, hasCell),
+  requestFromForm: (form, _study, hasCell) => costsRequestFromForm(form, hasCell),
+  run: runCostStudy,
+  view: costsView,
+  csv: costsCsv,
+};
+
+const COATINGS_PAGE: EconomicsPage<CoatingsForm, CoatingsRequest, CompareResponse, CoatingsView> = {
+  name: 'coatings',
+  title: 'Coatings',
+  savedNotice: 'Coating comparison saved to this study.',
+  locals: (ctx) => ({
+    labels: COATINGS_LABELS,
+    optionLabels: OPTION_LABELS,
+    anodeChoices: electrodeChoices(ctx.study, 'anode'),
+    cathodeChoices: electrodeChoices(ctx.study, 'cathode'),
+    // Coatings change the anode side reaction and the cathode of a plant handling chlorine or
+    // hydrogen at high DC current: the caution panel stays in view.
+    safetyPanel: safetyPanelFor(ctx.study.chemistry, ctx.link('/safety')),
+  }),
+  saved: (study) => study.coatings,
+  withSaved: (study, coatings) => ({ ...study, coatings }),
+  defaultForm: (study) => defaultCoatingsForm(study),
+  formFromRequest: (request, study) => coatingsFormFromRequest(request, study),
+  requestFromForm: (form, study) => coatingsRequestFromForm(form, study),
+  run: runCoatingComparison,
+  view: (result) => coatingsView(result),
+  csv: coatingsCsv,
+};
+
+interface PageHandlers<Form, View> {
+  /** Render the page with this form and view (or error). */
+  render: (req: Request, res: Response, opts: PageOptions<Form, View>) => void;
+  /** GET: the study's saved section, computed, or the default form. */
+  show: (req: Request, res: Response) => void;
+  /** POST: compute the form, then render, send CSV (action csv) or save and redirect (action save). */
+  submit: (req: Request, res: Response, form: Form, action: string) => void;
+}
+
+function economicsPage<Form, Req, Result, View>(store: StudyStore, page: EconomicsPage<Form, Req, Result, View>): PageHandlers<Form, View> {
+  const path = `/${page.name}`;
+  const render = (req: Request, res: Response, opts: PageOptions<Form, View>): void => {
+    const ctx = pageContext(req, store, page.title, path);
+    const cell = studyCellState(ctx.study);
+    res.status(opts.status ?? 200).render(page.name, {
+      ...ctx,
+      form: opts.form,
+      view: opts.view,
+      error: opts.error ?? null,
+      invalid: opts.fields ?? [],
+      notice: opts.notice ?? null,
+      hasStudyCell: cell.hasCell,
+      cellProblem: cell.problem,
+      products: productsOf(ctx.study.chemistry),
+      ...page.locals(ctx),
+    });
+  };
+
+  const show = (req: Request, res: Response): void => {
+    const ctx = pageContext(req, store, page.title, path);
+    const { hasCell } = studyCellState(ctx.study);
+    const notice = req.query.saved === '1' ? page.savedNotice : null;
+    const section = page.saved(ctx.study);
+    if (!section) {
+      render(req, res, { form: page.defaultForm(ctx.study, hasCell), view: null, notice });
+      return;
+    }
+    const form = page.formFromRequest(section, ctx.study, hasCell);
+    try {
+      render(req, res, { form, view: page.view(page.run(section, ctx.study)), notice });
+    } catch (err) {
+      const e = pageError(err, page.name);
+      render(req, res, { form, view: null, error: e.error, fields: e.fields, notice });
+    }
+  };
+
+  const submit = (req: Request, res: Response, form: Form, action: string): void => {
+    const ctx = pageContext(req, store, page.title, path);
+    const { hasCell } = studyCellState(ctx.study);
+    try {
+      const request = page.requestFromForm(form, ctx.study, hasCell);
+      const result = page.run(request, ctx.study);
+      if (action === 'csv') {
+        sendCsv(res, downloadName(page.name, ctx.study.name), page.csv(result, ctx.study.name));
+        return;
+      }
+      if (action === 'save') {
+        const id = store.save(page.withSaved(ctx.study, request), ctx.studyId);
+        res.redirect(303, `${path}?${new URLSearchParams({ study: id, saved: '1' }).toString()}`);
+        return;
+      }
+      render(req, res, { form, view: page.view(result) });
+    } catch (err) {
+      const e = pageError(err, page.name);
+      render(req, res, { form, view: null, status: e.status, error: e.error, fields: e.fields });
+    }
+  };
+
+  return { render, show, submit };
+}
+
 /** Coatings and Costs pages and their JSON API. */
 export function economicsRouter(store: StudyStore): Router {
   const r = Router();
@@ -127,140 +268,24 @@ export function economicsRouter(store: StudyStore): Router {
   });
 
   // ----- Costs page -----
-  const renderCosts = (
-    req: Request,
-    res: Response,
-    opts: { form: CostsForm; view: CostsView | null; status?: number; error?: unknown; fields?: string[]; notice?: string | null },
-  ): void => {
-    const ctx = pageContext(req, store, 'Costs', '/costs');
-    const cell = studyCellState(ctx.study);
-    res.status(opts.status ?? 200).render('costs', {
-      ...ctx,
-      form: opts.form,
-      view: opts.view,
-      error: opts.error ?? null,
-      invalid: opts.fields ?? [],
-      notice: opts.notice ?? null,
-      hasStudyCell: cell.hasCell,
-      cellProblem: cell.problem,
-      products: productsOf(ctx.study.chemistry),
-      labels: COSTS_LABELS,
-    });
-  };
-
-  r.get('/costs', (req, res) => {
-    const ctx = pageContext(req, store, 'Costs', '/costs');
-    const { hasCell } = studyCellState(ctx.study);
-    const notice = req.query.saved === '1' ? 'Cost study saved to this study.' : null;
-    const section = ctx.study.costs;
-    if (!section) {
-      renderCosts(req, res, { form: defaultCostsForm(ctx.study, hasCell), view: null, notice });
-      return;
-    }
-    const form = costsFormFromRequest(section, hasCell);
-    try {
-      renderCosts(req, res, { form, view: costsView(runCostStudy(section, ctx.study)), notice });
-    } catch (err) {
-      const e = pageError(err, 'costs');
-      renderCosts(req, res, { form, view: null, error: e.error, fields: e.fields, notice });
-    }
-  });
-
+  const costs = economicsPage(store, COSTS_PAGE);
+  r.get('/costs', costs.show);
   r.post('/costs', (req, res) => {
-    const ctx = pageContext(req, store, 'Costs', '/costs');
-    const { hasCell } = studyCellState(ctx.study);
-    const form = readCostsForm(req.body);
-    const action = actionOf(req);
-    try {
-      const request = costsRequestFromForm(form, hasCell);
-      const result = runCostStudy(request, ctx.study);
-      if (action === 'csv') {
-        sendCsv(res, downloadName('costs', ctx.study.name), costsCsv(result, ctx.study.name));
-        return;
-      }
-      if (action === 'save') {
-        const id = store.save({ ...ctx.study, costs: request }, ctx.studyId);
-        res.redirect(303, `/costs?${new URLSearchParams({ study: id, saved: '1' }).toString()}`);
-        return;
-      }
-      renderCosts(req, res, { form, view: costsView(result) });
-    } catch (err) {
-      const e = pageError(err, 'costs');
-      renderCosts(req, res, { form, view: null, status: e.status, error: e.error, fields: e.fields });
-    }
+    costs.submit(req, res, readCostsForm(req.body), actionOf(req));
   });
 
   // ----- Coatings page -----
-  const renderCoatings = (
-    req: Request,
-    res: Response,
-    opts: { form: CoatingsForm; view: CoatingsView | null; status?: number; error?: unknown; fields?: string[]; notice?: string | null },
-  ): void => {
-    const ctx = pageContext(req, store, 'Coatings', '/coatings');
-    const cell = studyCellState(ctx.study);
-    res.status(opts.status ?? 200).render('coatings', {
-      ...ctx,
-      form: opts.form,
-      view: opts.view,
-      error: opts.error ?? null,
-      invalid: opts.fields ?? [],
-      notice: opts.notice ?? null,
-      hasStudyCell: cell.hasCell,
-      cellProblem: cell.problem,
-      products: productsOf(ctx.study.chemistry),
-      labels: COATINGS_LABELS,
-      optionLabels: OPTION_LABELS,
-      anodeChoices: electrodeChoices(ctx.study, 'anode'),
-      cathodeChoices: electrodeChoices(ctx.study, 'cathode'),
-      // Coatings change the anode side reaction and the cathode of a plant handling chlorine or
-      // hydrogen at high DC current: the caution panel stays in view.
-      safetyPanel: safetyPanelFor(ctx.study.chemistry, ctx.link('/safety')),
-    });
-  };
-
-  r.get('/coatings', (req, res) => {
-    const ctx = pageContext(req, store, 'Coatings', '/coatings');
-    const notice = req.query.saved === '1' ? 'Coating comparison saved to this study.' : null;
-    const section = ctx.study.coatings;
-    if (!section) {
-      renderCoatings(req, res, { form: defaultCoatingsForm(ctx.study), view: null, notice });
-      return;
-    }
-    const form = coatingsFormFromRequest(section, ctx.study);
-    try {
-      renderCoatings(req, res, { form, view: coatingsView(runCoatingComparison(section, ctx.study)), notice });
-    } catch (err) {
-      const e = pageError(err, 'coatings');
-      renderCoatings(req, res, { form, view: null, error: e.error, fields: e.fields, notice });
-    }
-  });
-
+  const coatings = economicsPage(store, COATINGS_PAGE);
+  r.get('/coatings', coatings.show);
   r.post('/coatings', (req, res) => {
-    const ctx = pageContext(req, store, 'Coatings', '/coatings');
-    let form = readCoatingsForm(req.body);
+    const form = readCoatingsForm(req.body);
     const action = actionOf(req);
     if (action === 'resize') {
-      form = resizeOptions(form, Number.parseInt(typeof req.body?.resize === 'string' ? req.body.resize : '', 10));
-      renderCoatings(req, res, { form, view: null, notice: `${form.options.length} options: fill in the new ones and compute.` });
+      const resized = resizeOptions(form, Number.parseInt(typeof req.body?.resize === 'string' ? req.body.resize : '', 10));
+      coatings.render(req, res, { form: resized, view: null, notice: `${resized.options.length} options: fill in the new ones and compute.` });
       return;
     }
-    try {
-      const request = coatingsRequestFromForm(form, ctx.study);
-      const result = runCoatingComparison(request, ctx.study);
-      if (action === 'csv') {
-        sendCsv(res, downloadName('coatings', ctx.study.name), coatingsCsv(result, ctx.study.name));
-        return;
-      }
-      if (action === 'save') {
-        const id = store.save({ ...ctx.study, coatings: request }, ctx.studyId);
-        res.redirect(303, `/coatings?${new URLSearchParams({ study: id, saved: '1' }).toString()}`);
-        return;
-      }
-      renderCoatings(req, res, { form, view: coatingsView(result) });
-    } catch (err) {
-      const e = pageError(err, 'coatings');
-      renderCoatings(req, res, { form, view: null, status: e.status, error: e.error, fields: e.fields });
-    }
+    coatings.submit(req, res, form, action);
   });
 
   return r;

@@ -4,7 +4,7 @@
  * table, the drawn charts and the console. Saves a full-page screenshot.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { browserAvailable, screenshotPath, startHarness, type Harness } from './harness.js';
+import { browserAvailable, paintedPixels, screenshotPath, startHarness, type Harness } from './harness.js';
 
 describe.skipIf(!browserAvailable())('Cell page in a browser', () => {
   let h: Harness;
@@ -17,17 +17,6 @@ describe.skipIf(!browserAvailable())('Cell page in a browser', () => {
 
   it('fits kinetics from the datasets, computes the cell and draws its charts', async () => {
     const { page } = h;
-    const failed: string[] = [];
-    page.on('response', (r) => {
-      if (r.status() >= 400 && !r.url().endsWith('/favicon.ico')) failed.push(`${r.status()} ${r.url()}`);
-    });
-    // The browser's own /favicon.ico probe (the app serves none) is not a page error.
-    const consoleErrors: string[] = [];
-    page.on('console', (m) => {
-      if (m.type() === 'error' && !m.location().url.endsWith('/favicon.ico')) consoleErrors.push(`${m.text()} @ ${m.location().url}`);
-    });
-    page.on('pageerror', (e) => consoleErrors.push(String(e)));
-
     await page.goto(`${h.baseUrl}/`);
     await page.getByRole('link', { name: 'Cell', exact: true }).click();
     await page.waitForURL(/\/cell/);
@@ -56,19 +45,13 @@ describe.skipIf(!browserAvailable())('Cell page in a browser', () => {
     await page.waitForFunction(() => document.documentElement.getAttribute('data-charts-ready') !== null);
     for (const id of ['#chart-voltage', '#chart-efficiency']) {
       await page.waitForSelector(`${id}[data-drawn="true"]`);
-      const inked = await page.locator(id).evaluate((el) => {
-        const c = el as HTMLCanvasElement;
-        const data = c.getContext('2d')!.getImageData(0, 0, c.width, c.height).data;
-        let n = 0;
-        for (let i = 3; i < data.length; i += 4) if (data[i] > 0) n++;
-        return { n, total: c.width * c.height };
-      });
-      expect(inked.total, id).toBeGreaterThan(10_000);
-      expect(inked.n / inked.total, id).toBeGreaterThan(0.02);
+      const { painted, total } = await paintedPixels(page, id);
+      expect(total, id).toBeGreaterThan(10_000);
+      expect(painted / total, id).toBeGreaterThan(0.02);
     }
 
-    expect(failed).toEqual([]);
-    expect(consoleErrors).toEqual([]); // CSP violations and script errors would show here
+    expect(h.failedResponses).toEqual([]);
+    expect(h.consoleErrors).toEqual([]); // CSP violations and script errors would show here
     await page.screenshot({ path: screenshotPath('cell-page'), fullPage: true });
   });
 });

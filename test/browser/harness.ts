@@ -33,11 +33,50 @@ export function browserAvailable(): boolean {
   return true;
 }
 
-export interface Harness {
+/** What went wrong on a page while a test drove it; both lists stay empty on a healthy page. */
+export interface PageProblems {
+  /** Console errors (with their source) and uncaught page errors: script errors, CSP violations. */
+  consoleErrors: string[];
+  /** Responses with an HTTP status of 400 or more, as "status url". */
+  failedResponses: string[];
+}
+
+/**
+ * Collect the page's console errors and failed responses from now on. The app serves
+ * /favicon.ico (204) and every page links a `data:,` icon, so nothing is filtered out.
+ */
+export function trackPageProblems(page: Page): PageProblems {
+  const problems: PageProblems = { consoleErrors: [], failedResponses: [] };
+  page.on('console', (m) => {
+    if (m.type() === 'error') problems.consoleErrors.push(`${m.text()} @ ${m.location().url}`);
+  });
+  page.on('pageerror', (e) => problems.consoleErrors.push(String(e)));
+  page.on('response', (r) => {
+    if (r.status() >= 400) problems.failedResponses.push(`${r.status()} ${r.url()}`);
+  });
+  return problems;
+}
+
+/**
+ * Non-transparent pixels of the canvas matched by `selector`, and its pixel count: a drawn
+ * chart paints thousands, a blank canvas none. Throws if the element is not a 2-d canvas.
+ */
+export async function paintedPixels(page: Page, selector: string): Promise<{ painted: number; total: number }> {
+  return page.locator(selector).evaluate((el) => {
+    const ctx = el instanceof HTMLCanvasElement ? el.getContext('2d') : null;
+    if (!ctx) throw new Error('not a 2-d canvas');
+    const c = ctx.canvas;
+    const data = ctx.getImageData(0, 0, c.width, c.height).data;
+    let painted = 0;
+    for (let i = 3; i < data.length; i += 4) if (data[i] !== 0) painted++;
+    return { painted, total: c.width * c.height };
+  });
+}
+
+export interface Harness extends PageProblems {
   baseUrl: string;
   browser: Browser;
   page: Page;
-  consoleErrors: string[];
   close: () => Promise<void>;
 }
 
@@ -51,17 +90,13 @@ export async function startHarness(): Promise<Harness> {
   const browser = await chromium.launch({ executablePath: CHROMIUM_PATH, args: CHROMIUM_ARGS, headless: true });
   const context = await browser.newContext({ viewport: { width: 1360, height: 1000 } });
   const page = await context.newPage();
-  const consoleErrors: string[] = [];
-  page.on('console', (msg) => {
-    if (msg.type() === 'error') consoleErrors.push(msg.text());
-  });
-  page.on('pageerror', (err) => consoleErrors.push(String(err)));
+  const problems = trackPageProblems(page);
   mkdirSync(SCREENSHOT_DIR, { recursive: true });
   return {
     baseUrl: `http://127.0.0.1:${port}`,
     browser,
     page,
-    consoleErrors,
+    ...problems,
     close: async () => {
       await browser.close();
       await new Promise<void>((resolve) => server.close(() => resolve()));

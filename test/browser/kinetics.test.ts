@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { FARADAY, GAS_CONSTANT } from '../../server/core/constants.js';
 import { expectClose } from '../helpers/close.js';
-import { browserAvailable, screenshotPath, startHarness, type Harness } from './harness.js';
+import { browserAvailable, paintedPixels, screenshotPath, startHarness, type Harness } from './harness.js';
 
 /**
  * Synthetic anodic Tafel data, generated here from stated parameters with the textbook Tafel
@@ -37,17 +37,6 @@ describe.skipIf(!browserAvailable())('Kinetics page in a browser', () => {
 
   it('fits a pasted table, draws the Tafel chart and shows the expected slope', async () => {
     const { page } = h;
-    const failed: string[] = [];
-    page.on('response', (r) => {
-      if (r.status() >= 400) failed.push(`${r.status()} ${r.url()}`);
-    });
-    // Console errors with their source; the browser's own /favicon.ico probe (the app serves
-    // none) is not a page error and is left out.
-    const consoleErrors: string[] = [];
-    page.on('console', (m) => {
-      if (m.type() === 'error' && !m.location().url.endsWith('/favicon.ico')) consoleErrors.push(`${m.text()} @ ${m.location().url}`);
-    });
-    page.on('pageerror', (e) => consoleErrors.push(String(e)));
     await page.goto(`${h.baseUrl}/`);
     await page.getByRole('link', { name: 'Kinetics' }).click();
     await page.waitForURL(/\/kinetics/);
@@ -72,18 +61,12 @@ describe.skipIf(!browserAvailable())('Kinetics page in a browser', () => {
     const tafel = page.locator('#chart-tafel');
     await page.waitForSelector('#chart-tafel[data-drawn="true"]');
     expect(await tafel.getAttribute('data-drawn')).toBe('true');
-    const inked = await tafel.evaluate((el) => {
-      const c = el as HTMLCanvasElement;
-      const data = c.getContext('2d')!.getImageData(0, 0, c.width, c.height).data;
-      let n = 0;
-      for (let i = 3; i < data.length; i += 4) if (data[i] > 0) n++;
-      return { n, total: c.width * c.height };
-    });
-    expect(inked.total).toBeGreaterThan(10_000);
-    expect(inked.n / inked.total).toBeGreaterThan(0.01);
+    const { painted, total } = await paintedPixels(page, '#chart-tafel');
+    expect(total).toBeGreaterThan(10_000);
+    expect(painted / total).toBeGreaterThan(0.01);
 
-    expect(failed).toEqual([]);
-    expect(consoleErrors).toEqual([]); // CSP violations and script errors would show here
+    expect(h.failedResponses).toEqual([]);
+    expect(h.consoleErrors).toEqual([]); // CSP violations and script errors would show here
     await page.screenshot({ path: screenshotPath('kinetics-fit'), fullPage: true });
   });
 });

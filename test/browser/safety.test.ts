@@ -17,16 +17,6 @@ describe.skipIf(!browserAvailable())('Safety page in a browser', () => {
 
   it('shows the checks and the cautions', async () => {
     const { page } = h;
-    const failed: string[] = [];
-    page.on('response', (r) => {
-      if (r.status() >= 400 && !r.url().endsWith('/favicon.ico')) failed.push(`${r.status()} ${r.url()}`);
-    });
-    const consoleErrors: string[] = [];
-    page.on('console', (m) => {
-      if (m.type() === 'error' && !m.location().url.endsWith('/favicon.ico')) consoleErrors.push(`${m.text()} @ ${m.location().url}`);
-    });
-    page.on('pageerror', (e) => consoleErrors.push(String(e)));
-
     await page.goto(`${h.baseUrl}/`);
     await page.getByRole('link', { name: 'Safety', exact: true }).click();
     await page.waitForURL(/\/safety/);
@@ -50,7 +40,7 @@ describe.skipIf(!browserAvailable())('Safety page in a browser', () => {
     await page.locator('#checks').waitFor({ state: 'visible' });
     await expect(page.locator('#check-hydrogen-in-chlorine-minimum-load').getAttribute('data-level')).resolves.toBe('alarm');
 
-    expect(failed).toEqual([]);
-    expect(consoleErrors).toEqual([]);
+    expect(h.failedResponses).toEqual([]);
+    expect(h.consoleErrors).toEqual([]);
   });
 });

@@ -9,6 +9,8 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createApp } from '../../server/app.js';
 import { exampleCell } from '../../scripts/example-cell.js';
+import type { CellDefinition } from '../../server/core/cell/types.js';
+import { linearCell as idealLinearCell } from '../cell/cells.js';
 import { expectClose } from '../helpers/close.js';
 
 let dir: string;
@@ -24,28 +26,9 @@ afterAll(() => rmSync(dir, { recursive: true, force: true }));
 const KWH_PER_T = 3.6e3;
 const KWH_PER_KG = 3.6e6;
 
-/**
- * An electrode with negligible activation overpotential (Butler–Volmer, j0 = 1e12 A/m²:
- * |η| < 1e-8 V for j ≤ 1e4 A/m²), so the cell voltage is E_rev + R·j.
- */
-const idealElectrode = {
-  kinetics: { model: 'butler-volmer', exchangeCurrentDensity: 1e12, anodicTransferCoefficient: 0.5, cathodicTransferCoefficient: 0.5 },
-};
-
-/** A "linear" cell: E_rev overridden, one hardware resistance, ideal electrodes. */
-function linearCell(chemistry: string, reversible: number, resistance: number, currentDensities: number[], extra: Record<string, unknown> = {}) {
-  return {
-    chemistry,
-    temperature: 353.15,
-    pressure: 1e5,
-    composition: chemistry === 'chlor-alkali' ? { brineNaCl: 3.6, causticNaOH: 11.8 } : chemistry === 'alkaline-water' ? { koh: 7.639 } : {},
-    reversiblePotential: reversible,
-    anode: idealElectrode,
-    cathode: idealElectrode,
-    ohmic: { hardware: resistance },
-    currentDensities,
-    ...extra,
-  };
+/** A "linear" cell U = E_rev + R·j (ideal electrodes, see test/cell/cells.ts) with extra fields. */
+function linearCell(chemistry: CellDefinition['chemistry'], reversible: number, resistance: number, currentDensities: number[], extra: Record<string, unknown> = {}) {
+  return { ...idealLinearCell(chemistry, reversible, resistance, currentDensities), ...extra };
 }
 
 function exampleDefinition(): Record<string, unknown> {

@@ -15,6 +15,7 @@ import { alphaFromSlope, buildCell, formFromSection, kineticsFromFit, readForm }
 import { savedFitRecord } from '../../server/web/kinetics-view.js';
 import { exampleCell } from '../../scripts/example-cell.js';
 import { expectClose } from '../helpers/close.js';
+import { formFields as formFieldsOf, unescapeHtml } from '../helpers/web.js';
 
 const EXAMPLE_ID = 'example-brackwater-pilot';
 const exampleStudy = parseStudyText(readFileSync(path.resolve('scenarios/brackwater-pilot.study.json'), 'utf8'));
@@ -38,35 +39,9 @@ afterAll(() => rmSync(dir, { recursive: true, force: true }));
 // ---------------------------------------------------------------------------------------------
 // Small HTML helpers for our own markup (no DOM library is installed).
 
-function unescapeHtml(s: string): string {
-  return s.replace(/&#34;/g, '"').replace(/&#39;/g, "'").replace(/&lt;/g, '<').replace(/&gt;/g, '>').replace(/&amp;/g, '&');
-}
-
-function attr(tag: string, name: string): string | undefined {
-  const m = new RegExp(`\\s${name.replace(/[.]/g, '\\.')}="([^"]*)"`).exec(tag);
-  return m ? unescapeHtml(m[1]) : undefined;
-}
-
-/** The fields a browser would post from the page's cell form (inputs, checked radios/boxes, selected options). */
+/** The fields a browser would post from the page's cell form. */
 function formFields(html: string): Record<string, string> {
-  const start = html.indexOf('<form id="cell-form"');
-  const form = html.slice(start, html.indexOf('</form>', start));
-  const out: Record<string, string> = {};
-  for (const m of form.matchAll(/<input\b[^>]*>/g)) {
-    const tag = m[0];
-    const name = attr(tag, 'name');
-    if (!name) continue;
-    const type = attr(tag, 'type') ?? 'text';
-    if ((type === 'radio' || type === 'checkbox') && !/\schecked\b/.test(tag)) continue;
-    out[name] = attr(tag, 'value') ?? '';
-  }
-  for (const m of form.matchAll(/<select\b([^>]*)>([\s\S]*?)<\/select>/g)) {
-    const name = attr(m[1], 'name');
-    if (!name) continue;
-    const options = [...m[2].matchAll(/<option\b([^>]*)>/g)].map((o) => ({ value: attr(o[1], 'value') ?? '', selected: /\sselected\b/.test(o[1]) }));
-    out[name] = (options.find((o) => o.selected) ?? options[0])?.value ?? '';
-  }
-  return out;
+  return formFieldsOf(html, 'cell-form');
 }
 
 /** Rows of the design breakdown table: label → mV. */

@@ -5,6 +5,7 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createApp } from '../../server/app.js';
 import { expectClose } from '../helpers/close.js';
+import { formFields } from '../helpers/web.js';
 
 let dir: string;
 let app: ReturnType<typeof createApp>;
@@ -16,24 +17,9 @@ afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
 const EXAMPLE = 'example-brackwater-pilot';
 
-/** Decode the few HTML entities EJS writes into attribute values. */
-function unescapeHtml(s: string): string {
-  return s.replace(/&#34;/g, '"').replace(/&#39;/g, "'").replace(/&lt;/g, '<').replace(/&gt;/g, '>').replace(/&amp;/g, '&');
-}
-
-/** The values a browser would submit from the kinetics form in `html` (text, hidden, checked, selected). */
+/** The values a browser would submit from the kinetics form in `html`. */
 function formValues(html: string): Record<string, string> {
-  const form = /<form id="kinetics-form"[\s\S]*?<\/form>/.exec(html)![0];
-  const out: Record<string, string> = {};
-  for (const m of form.matchAll(/<input type="(?:text|number|hidden)"[^>]*?name="(\w+)"[^>]*?value="([^"]*)"/g)) out[m[1]] = unescapeHtml(m[2]);
-  for (const m of form.matchAll(/<input type="(?:radio|checkbox)" name="(\w+)" value="([^"]*)" checked/g)) out[m[1]] = m[2];
-  for (const m of form.matchAll(/<select name="(\w+)"[^>]*>([\s\S]*?)<\/select>/g)) {
-    const selected = /<option value="([^"]*)"[^>]*? selected[ >]/.exec(m[2]);
-    if (selected) out[m[1]] = selected[1];
-  }
-  const text = /<textarea[^>]*name="data"[^>]*>([\s\S]*?)<\/textarea>/.exec(form);
-  out.data = text ? unescapeHtml(text[1]) : '';
-  return out;
+  return formFields(html, 'kinetics-form');
 }
 
 async function formFor(datasetId: string, study = EXAMPLE): Promise<Record<string, string>> {

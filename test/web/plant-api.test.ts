@@ -8,6 +8,7 @@ import path from 'node:path';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createApp } from '../../server/app.js';
+import { linearCell } from '../cell/cells.js';
 import { expectClose } from '../helpers/close.js';
 
 let dir: string;
@@ -66,19 +67,7 @@ function baseBody(): Record<string, unknown> {
  * E_rev overridden to 2.35 V, one hardware resistance of 1e-4 Ω·m². Invented for the test.
  */
 function lineAsCellDefinition(extra: Record<string, unknown> = {}): Record<string, unknown> {
-  const ideal = { kinetics: { model: 'butler-volmer', exchangeCurrentDensity: 1e12, anodicTransferCoefficient: 0.5, cathodicTransferCoefficient: 0.5 } };
-  return {
-    chemistry: 'chlor-alkali',
-    temperature: 361.15,
-    pressure: 1.2e5,
-    composition: { brineNaCl: 3.6, causticNaOH: 11.8 },
-    reversiblePotential: 2.35,
-    anode: ideal,
-    cathode: ideal,
-    ohmic: { hardware: 1e-4 },
-    currentDensities: [1000, 3000, 5000],
-    ...extra,
-  };
+  return { ...linearCell('chlor-alkali', 2.35, 1e-4, [1000, 3000, 5000]), temperature: 361.15, pressure: 1.2e5, ...extra };
 }
 
 async function size(body: Record<string, unknown>) {

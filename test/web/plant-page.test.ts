@@ -11,6 +11,7 @@ import { createApp } from '../../server/app.js';
 import type { Study } from '../../server/scenario/schema.js';
 import type { PlantSection } from '../../server/scenario/plant-sections.js';
 import { formFromSection, type PlantForm } from '../../server/web/plant-view.js';
+import { linearCell } from '../cell/cells.js';
 import { expectClose } from '../helpers/close.js';
 
 const EXAMPLE = 'example-brackwater-pilot';
@@ -216,18 +217,11 @@ describe('Plant page', () => {
     // A cell definition equal to U = 2.35 V + 1e-4 Ω·m²·j (ideal electrodes, E_rev set to
     // 2.35 V, one hardware resistance; invented). Its slope gives the cell resistance
     // r = 1e-4 Ω·m² / 2.7 m² = 37.04 µΩ (hand), the same as the plant-data line.
-    const ideal = { kinetics: { model: 'butler-volmer', exchangeCurrentDensity: 1e12, anodicTransferCoefficient: 0.5, cathodicTransferCoefficient: 0.5 } };
     const cell = {
-      chemistry: 'chlor-alkali',
+      ...linearCell('chlor-alkali', 2.35, 1e-4, [1000, 3000, 5500]),
       temperature: 361.15,
       pressure: 1.2e5,
-      composition: { brineNaCl: 3.6, causticNaOH: 11.8 },
-      reversiblePotential: 2.35,
-      anode: ideal,
-      cathode: ideal,
-      ohmic: { hardware: 1e-4 },
       currentEfficiency: { model: 'constant', value: 0.96 },
-      currentDensities: [1000, 3000, 5500],
     };
     const plant = { ...(example.plant as PlantSection), cellSource: 'study-cell' };
     const created = await request(app).post('/api/v1/studies').send({ ...example, name: 'With a cell', cell, plant });

@@ -11,6 +11,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createApp } from '../../server/app.js';
 import type { Study } from '../../server/scenario/schema.js';
 import type { PlantSection } from '../../server/scenario/plant-sections.js';
+import { linearCell } from '../cell/cells.js';
 import { expectClose } from '../helpers/close.js';
 
 const EXAMPLE = 'example-brackwater-pilot';
@@ -156,18 +157,11 @@ describe('Safety page', () => {
   });
 
   it("takes the hydrogen content from a water cell model's crossover", async () => {
-    const ideal = { kinetics: { model: 'butler-volmer', exchangeCurrentDensity: 1e12, anodicTransferCoefficient: 0.5, cathodicTransferCoefficient: 0.5 } };
     const cell = {
-      chemistry: 'alkaline-water',
-      temperature: 353.15,
+      ...linearCell('alkaline-water', 1.2, 1e-4, [1000, 4000]),
       pressure: 1.5e5,
       composition: { koh: 7.6 },
-      reversiblePotential: 1.2,
-      anode: ideal,
-      cathode: ideal,
-      ohmic: { hardware: 1e-4 },
       currentEfficiency: { model: 'crossover', hydrogenPermeability: 1e-13, membraneThickness: 5e-4 },
-      currentDensities: [1000, 4000],
       designCurrentDensity: 4000,
     };
     const water = { ...example, name: 'Water with crossover', chemistry: 'alkaline-water', operating: { temperature: 353.15, pressure: 1.5e5, composition: { koh: 7.6 } }, cell, plant: undefined, coatings: undefined, costs: undefined };
