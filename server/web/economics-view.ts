@@ -255,6 +255,30 @@ export const DEFAULT_SENSITIVITY_FRACTION = 0.2;
  * density (numeric; closed form beside it for a linear cell) and the tornado at ±fraction.
  * The cell defaults to the study's cell definition. Throws InputError/PhysicsError with paths.
  */
+/** The cost core names its inputs in its own words; answer with the request's field names. */
+const COST_PATHS: Record<string, string> = {
+  energyPrice: 'electricityPrice',
+  lifeYears: 'lifetime',
+  operatingHoursPerYear: 'operatingHours',
+  currentDensityRange: 'currentDensities',
+  designCurrentDensity: 'designCurrentDensity',
+};
+
+function withRequestPaths<T>(run: () => T): T {
+  try {
+    return run();
+  } catch (err) {
+    if (err instanceof InputError || err instanceof PhysicsError) {
+      const fix = (p: string) => p.replace(/^[A-Za-z]+/, (head) => COST_PATHS[head] ?? head);
+      const issues = err.issues.map((i) => ({ path: fix(i.path), message: i.message }));
+      const message = err.message.replace(/^[A-Za-z]+/, (head) => COST_PATHS[head] ?? head);
+      if (err instanceof PhysicsError) throw new PhysicsError(issues[0]?.path ?? 'cell', issues[0]?.message ?? message);
+      throw InputError.many(message, issues);
+    }
+    throw err;
+  }
+}
+
 export function runCostStudy(request: CostRequest, study?: Study): CostResponse {
   const fromStudy = request.cell === undefined;
   const source = request.cell ?? studyCellSource(study);
@@ -279,7 +303,7 @@ export function runCostStudy(request: CostRequest, study?: Study): CostResponse 
   };
   if (request.designCurrentDensity !== undefined) input.designCurrentDensity = request.designCurrentDensity;
 
-  const eco = economicCurrentDensity(input);
+  const eco = withRequestPaths(() => economicCurrentDensity(input));
   const warnings = [...eco.warnings];
   const points = request.currentDensities.map((j, k) => {
     try {
@@ -324,7 +348,7 @@ export function runCostStudy(request: CostRequest, study?: Study): CostResponse 
 
   const fraction = request.sensitivityFraction ?? DEFAULT_SENSITIVITY_FRACTION;
   const basisJ = request.designCurrentDensity ?? eco.currentDensity;
-  const tornado = costSensitivity(input, { currentDensity: basisJ, fraction });
+  const tornado = withRequestPaths(() => costSensitivity(input, { currentDensity: basisJ, fraction }));
 
   const response: CostResponse = {
     product: request.product,

@@ -233,6 +233,19 @@ function text(value: unknown, max = 200): string {
   return typeof value === 'string' ? value.slice(0, max) : '';
 }
 
+/** Longest text kept for a number field (project choice: far longer than any number typed). */
+const MAX_NUMBER_TEXT = 40;
+
+/**
+ * The text of a number field as typed, for showing back. Text longer than MAX_NUMBER_TEXT is
+ * cut and marked with "…" so that it can never be read (or shown back) as a different number —
+ * a plain cut would turn "1e300" into "1e30" — and the number check then refuses it.
+ */
+function typedNumber(value: unknown): string {
+  if (typeof value !== 'string') return '';
+  return value.length > MAX_NUMBER_TEXT ? `${value.slice(0, MAX_NUMBER_TEXT)}…` : value;
+}
+
 /** Read the posted body into a form model (never throws: validation comes later). */
 export function readForm(body: Record<string, unknown> | undefined): KineticsForm {
   const b = body ?? {};
@@ -241,32 +254,32 @@ export function readForm(body: Record<string, unknown> | undefined): KineticsFor
     dataset: text(b.dataset, 64),
     describedDataset: text(b.describedDataset, 64),
     data: typeof b.data === 'string' ? b.data : '',
-    currentColumn: text(b.currentColumn, 4) || '1',
-    potentialColumn: text(b.potentialColumn, 4) || '2',
+    currentColumn: typedNumber(b.currentColumn) || '1',
+    potentialColumn: typedNumber(b.potentialColumn) || '2',
     currentUnit: pick(b.currentUnit, CURRENT_UNITS, 'A/m2'),
     potentialUnit: pick(b.potentialUnit, POTENTIAL_UNITS, 'V'),
     potentialKind: pick(b.potentialKind, ['overpotential', 'electrode'] as const, 'overpotential'),
     reference: text(b.reference, 40),
-    referenceCustom: text(b.referenceCustom, 40),
-    pH: text(b.pH, 40),
-    equilibriumPotential: text(b.equilibriumPotential, 40),
+    referenceCustom: typedNumber(b.referenceCustom),
+    pH: typedNumber(b.pH),
+    equilibriumPotential: typedNumber(b.equilibriumPotential),
     equilibriumVs: pick(b.equilibriumVs, ['same', 'she', 'rhe'] as const, 'same'),
-    temperatureC: text(b.temperatureC, 40),
-    electrons: text(b.electrons, 40),
+    temperatureC: typedNumber(b.temperatureC),
+    electrons: typedNumber(b.electrons),
     model: pick(b.model, ['tafel', 'butler-volmer'] as const, 'tafel'),
     branch: pick(b.branch, ['auto', 'anodic', 'cathodic'] as const, 'auto'),
     windowMode: pick(b.windowMode, ['auto', 'manual'] as const, 'auto'),
-    windowMin: text(b.windowMin, 40),
-    windowMax: text(b.windowMax, 40),
+    windowMin: typedNumber(b.windowMin),
+    windowMax: typedNumber(b.windowMax),
     irMode: pick(b.irMode, ['none', 'known', 'fit'] as const, 'none'),
-    ru: text(b.ru, 40),
+    ru: typedNumber(b.ru),
     anodicLimitMode: pick(b.anodicLimitMode, ['none', 'fit', 'value'] as const, 'none'),
-    anodicLimit: text(b.anodicLimit, 40),
+    anodicLimit: typedNumber(b.anodicLimit),
     cathodicLimitMode: pick(b.cathodicLimitMode, ['none', 'fit', 'value'] as const, 'none'),
-    cathodicLimit: text(b.cathodicLimit, 40),
+    cathodicLimit: typedNumber(b.cathodicLimit),
     tie: b.tie === '1' || b.tie === 'on' || b.tie === 'true',
     fitName: text(b.fitName, 200),
-    referenceTemperatureC: text(b.referenceTemperatureC, 40),
+    referenceTemperatureC: typedNumber(b.referenceTemperatureC),
   };
 }
 
@@ -290,8 +303,12 @@ export class IssueList {
       if (!opts.optional) this.add(field, 'is required');
       return undefined;
     }
+    if (raw.length > MAX_NUMBER_TEXT) {
+      this.add(field, `is too long to be a number (more than ${MAX_NUMBER_TEXT} characters)`);
+      return undefined;
+    }
     if (!/^[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?$/.test(raw)) {
-      this.add(field, `"${raw.slice(0, 30)}" is not a number`);
+      this.add(field, `"${raw.length > 30 ? `${raw.slice(0, 30)}…` : raw}" is not a number`);
       return undefined;
     }
     const v = Number(raw);
@@ -380,6 +397,38 @@ function referenceSpec(issues: IssueList, form: KineticsForm, id: string, field:
   return { id: id as Exclude<ReferenceElectrodeId, 'rhe'> };
 }
 
+/** Byte-order marks of UTF-16 text (Unicode Standard §23.8: U+FEFF as FF FE or FE FF). */
+const UTF16LE_BOM = [0xff, 0xfe] as const;
+const UTF16BE_BOM = [0xfe, 0xff] as const;
+/** What to do with a UTF-16 file that cannot be decoded here (project wording). */
+const UTF16_ADVICE = 'save it as UTF-8 CSV (or UTF-16 with a byte-order mark), or paste the table';
+
+/**
+ * Text of an uploaded data file from its bytes: UTF-16 with a byte-order mark (FF FE little-
+ * endian, FE FF big-endian) is decoded as such, everything else as UTF-8 (a UTF-8 byte-order
+ * mark is dropped; bytes that are not UTF-8 become U+FFFD, as before). A file with NUL bytes
+ * and no UTF-16 byte-order mark (UTF-16 without BOM, or a binary file) is refused with an
+ * InputError on the file field rather than read as garbage.
+ * Source: WHATWG Encoding Standard decoders via TextDecoder (Node 20).
+ */
+export function decodeDataFile(bytes: Uint8Array): string {
+  const starts = (bom: readonly number[]) => bytes.length >= 2 && bytes[0] === bom[0] && bytes[1] === bom[1];
+  if (starts(UTF16LE_BOM)) return new TextDecoder('utf-16le').decode(bytes);
+  if (starts(UTF16BE_BOM)) return new TextDecoder('utf-16be').decode(bytes);
+  if (bytes.includes(0)) {
+    throw new InputError(FIELD_LABELS.dataFile, `the file holds NUL bytes: UTF-16 text without a byte-order mark, or not a text file, cannot be read reliably; ${UTF16_ADVICE}`);
+  }
+  return new TextDecoder('utf-8').decode(bytes);
+}
+
+/**
+ * True when data text is UTF-16 read as UTF-8 (a UTF-16 byte-order mark decodes to U+FFFD
+ * U+FFFD, and every ASCII character of UTF-16 carries a NUL): such text must not be parsed.
+ */
+function looksLikeMisreadUtf16(textIn: string): boolean {
+  return textIn.includes('\u0000') || textIn.startsWith('\uFFFD\uFFFD');
+}
+
 /**
  * Translate the form (and an uploaded file's text) into the core's SI fit input.
  * Throws InputError naming form fields (labels) or data lines.
@@ -442,6 +491,8 @@ export function prepareFit(form: KineticsForm, study: Study, fileText: string | 
     let table: ReturnType<typeof parsePolarizationTable> | null = null;
     if (!textIn || !textIn.trim()) {
       issues.add(field, form.source === 'file' ? 'choose a CSV file to upload' : 'paste a table of current density and potential');
+    } else if (looksLikeMisreadUtf16(textIn)) {
+      issues.add(field, `the ${form.source === 'file' ? 'file' : 'pasted text'} looks like UTF-16 text read as UTF-8 (it holds NUL characters), which would be read as garbage; ${UTF16_ADVICE}`);
     } else if (currentColumn !== undefined && potentialColumn !== undefined) {
       try {
         table = parsePolarizationTable(textIn, { currentColumn, potentialColumn }, { source: form.source === 'file' ? 'file' : 'data' });

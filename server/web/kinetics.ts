@@ -41,6 +41,7 @@ import {
   studyReferenceLabel,
   seriesView,
   comparisonView,
+  decodeDataFile,
   savedFitsView,
   type FitResultLike,
   type KineticsForm,
@@ -482,7 +483,7 @@ export function kineticsRouter(store: StudyStore): Router {
           notice = `Measurement details (temperature, potentials, R_u) were taken from the dataset “${d.name}”.`;
         }
       }
-      const fileText = req.file ? req.file.buffer.toString('utf8') : undefined;
+      const fileText = req.file ? decodeDataFile(req.file.buffer) : undefined;
       const outcome = runFit(form, study, fileText);
       if (form.source === 'file' && fileText !== undefined && fileText.length <= MAX_PASTE_BACK) {
         // Keep the uploaded table in the paste box so downloads and saving work without re-uploading.

@@ -6,6 +6,8 @@
  * `parseCellDefinition` turns any unknown value into a typed definition or throws InputError
  * listing every problem with its field path (e.g. `anode.kinetics.exchangeCurrentDensity`,
  * `currentDensities[7]`). The kernels (balance.ts, efficiency.ts) trust what passes here.
+ * Besides signs and finiteness, every magnitude is held to a documented plausibility bound
+ * (PLAUSIBILITY_BOUNDS below: our plausibility bounds, each message naming the unit).
  */
 import { z } from 'zod';
 import { InputError, type IssueDetail } from '../errors.js';
@@ -19,6 +21,92 @@ const positive = finite.refine((v) => v > 0, 'must be > 0');
 const nonNegative = finite.refine((v) => v >= 0, 'must be ≥ 0');
 const fraction01 = finite.refine((v) => v > 0 && v <= 1, 'must be in (0, 1]');
 
+/**
+ * Plausibility bounds of the cell definition — our plausibility bounds, not validity ranges
+ * of any correlation (those are checked, with warnings or errors, where each correlation is
+ * used). Each is far outside every real electrolyser, so a value beyond it is a unit slip
+ * (kPa read as Pa, mA/cm² as A/m², mm as m, Ω·cm² as Ω·m²…) or a typing error, and is refused
+ * with the field path, the bound and its unit instead of being carried into the model (where
+ * 1e308 Pa or 1e308 A/m² would only overflow). Sources: orders of magnitude from the operating
+ * figures of check-values.md §9 (from memory / common practice); the margins are our choice.
+ */
+export const PLAUSIBILITY_BOUNDS = {
+  /** K: −50 °C to 400 °C, the temperature range the kinetics data pages accept (our plausibility bound). */
+  temperature: { min: 223.15, max: 673.15, unit: 'K' },
+  /** Pa: 100 MPa; high-pressure electrolysers run at a few MPa (our plausibility bound). */
+  pressure: { max: 1e8, unit: 'Pa' },
+  /**
+   * A/m²: 1e12. Real exchange current densities stay below ~1e3 A/m² (check-values §9d); values
+   * up to 1e12 A/m² are accepted so that an electrode without activation loss (a "reversible"
+   * electrode, |η| < 1e-8 V at 1e4 A/m²) can still be modelled (our plausibility bound).
+   */
+  exchangeCurrentDensity: { max: 1e12, unit: 'A/m²' },
+  /** A/m²: 1e6 (100 A/cm²); industrial cells run at 2e3–3e4 A/m² (our plausibility bound). */
+  currentDensity: { max: 1e6, unit: 'A/m²' },
+  /**
+   * Dimensionless: transfer coefficients 0.01 to 10 (α ≤ n ≤ 8 for one step; α = 0.01 would be
+   * a Tafel slope of several V/decade; our plausibility bound).
+   */
+  transferCoefficient: { min: 0.01, max: 10, unit: '(dimensionless)' },
+  /** J/mol: |E_a| ≤ 1 MJ/mol; electrode-kinetic and membrane E_a are 10–100 kJ/mol (our plausibility bound). */
+  activationEnergy: { max: 1e6, unit: 'J/mol' },
+  /** m: 1 m; gaps and membranes are µm to mm (our plausibility bound). */
+  thickness: { max: 1, unit: 'm' },
+  /**
+   * S/m: 1e-6 to 1e4; electrolytes and ionomers are 1–200 S/m, ultrapure water 5.5e-6 S/m
+   * (our plausibility bound; below it the ohmic drop alone would overflow).
+   */
+  conductivity: { min: 1e-6, max: 1e4, unit: 'S/m' },
+  /** Ω·m²: 1 (= 1e4 Ω·cm²); cell area resistances are 1e-5–1e-4 Ω·m² (our plausibility bound). */
+  areaResistance: { max: 1, unit: 'Ω·m²' },
+  /**
+   * mol/kg: 1e-6 to 100, above any saturated electrolyte in use and below any process
+   * electrolyte (our plausibility bound; a vanishing molality gives a vanishing conductivity).
+   */
+  molality: { min: 1e-6, max: 100, unit: 'mol/kg' },
+  /** V: 10; reversible cell voltages of electrolysis are 1–3 V (our plausibility bound). */
+  potential: { max: 10, unit: 'V' },
+  /** λ (H₂O per sulfonic group): 100; a fully hydrated PFSA membrane holds about 22 (our plausibility bound). */
+  waterContent: { max: 100, unit: 'H₂O per sulfonic group' },
+  /** mol/(m·s·Pa): 1e-6, far above the ~1e-14 of ionomer membranes (our plausibility bound). */
+  permeability: { max: 1e-6, unit: 'mol/(m·s·Pa)' },
+} as const;
+
+type Bound = { min?: number; max: number; unit: string };
+
+/** "1e8 Pa" style text of a bound. */
+function boundText(v: number, unit: string): string {
+  const text = Math.abs(v) >= 1e4 || (v !== 0 && Math.abs(v) < 1e-3) ? v.toExponential().replace('e+', 'e') : String(v);
+  return unit ? `${text} ${unit}` : text;
+}
+
+/** Add the plausibility bound `b` to a number schema (|v| ≤ max when `symmetric`). */
+function within<T extends z.ZodType<number>>(schema: T, b: Bound, symmetric = false): T {
+  const hint = (beyond: string) => `our plausibility bound: no real electrolyser ${beyond} it; check the unit`;
+  let out = schema.refine((v) => (symmetric ? Math.abs(v) : v) <= b.max, {
+    message: symmetric
+      ? `must be between ${boundText(-b.max, b.unit)} and ${boundText(b.max, b.unit)} (${hint('goes beyond')})`
+      : `must be ≤ ${boundText(b.max, b.unit)} (${hint('exceeds')})`,
+  });
+  if (b.min !== undefined) {
+    const min = b.min;
+    out = out.refine((v) => v >= min, { message: `must be ≥ ${boundText(min, b.unit)} (${hint('goes below')})` });
+  }
+  return out as unknown as T;
+}
+
+const B = PLAUSIBILITY_BOUNDS;
+const temperatureK = within(positive, B.temperature);
+const exchangeCurrentDensity = within(positive, B.exchangeCurrentDensity);
+const transferCoefficient = within(positive, B.transferCoefficient);
+const activationEnergy = within(finite, B.activationEnergy, true);
+const currentDensity = within(positive, B.currentDensity);
+const thickness = within(nonNegative, B.thickness);
+const thicknessPositive = within(positive, B.thickness);
+const conductivity = within(positive, B.conductivity);
+const areaResistance = within(nonNegative, B.areaResistance);
+const molality = within(positive, B.molality);
+
 const uncertaintySchema = z.object({
   lnExchangeCurrentDensitySE: nonNegative,
   transferCoefficientSE: nonNegative,
@@ -27,20 +115,20 @@ const uncertaintySchema = z.object({
 
 const tafelSchema = z.object({
   model: z.literal('tafel'),
-  exchangeCurrentDensity: positive,
-  transferCoefficient: positive,
-  referenceTemperature: positive.optional(),
-  activationEnergy: finite.optional(),
+  exchangeCurrentDensity,
+  transferCoefficient,
+  referenceTemperature: temperatureK.optional(),
+  activationEnergy: activationEnergy.optional(),
   uncertainty: uncertaintySchema.optional(),
 });
 
 const butlerVolmerSchema = z.object({
   model: z.literal('butler-volmer'),
-  exchangeCurrentDensity: positive,
-  anodicTransferCoefficient: positive,
-  cathodicTransferCoefficient: positive,
-  referenceTemperature: positive.optional(),
-  activationEnergy: finite.optional(),
+  exchangeCurrentDensity,
+  anodicTransferCoefficient: transferCoefficient,
+  cathodicTransferCoefficient: transferCoefficient,
+  referenceTemperature: temperatureK.optional(),
+  activationEnergy: activationEnergy.optional(),
   uncertainty: uncertaintySchema.optional(),
 });
 
@@ -48,62 +136,62 @@ export const kineticsSchema = z.discriminatedUnion('model', [tafelSchema, butler
 
 const electrodeSchema = z.object({
   kinetics: kineticsSchema,
-  limitingCurrentDensity: positive.optional(),
+  limitingCurrentDensity: currentDensity.optional(),
   electrons: z.number().int().min(1).max(8).optional(),
 });
 
 const gapSchema = z.object({
-  thickness: nonNegative,
-  conductivity: positive.optional(),
+  thickness,
+  conductivity: conductivity.optional(),
   electrolyte: z.enum(['KOH', 'NaOH', 'NaCl']).optional(),
-  concentration: positive.optional(),
+  concentration: molality.optional(),
   voidFraction: finite.refine((v) => v >= 0 && v < 1, 'must be in [0, 1)').optional(),
   voidModel: z.enum(['bruggeman', 'maxwell']).optional(),
 });
 
 const membraneSchema = z.union([
   z.strictObject({
-    areaResistance: nonNegative,
-    referenceTemperature: positive.optional(),
-    activationEnergy: finite.optional(),
+    areaResistance,
+    referenceTemperature: temperatureK.optional(),
+    activationEnergy: activationEnergy.optional(),
   }),
-  z.strictObject({ thickness: nonNegative, conductivity: positive }),
-  z.strictObject({ springer: z.strictObject({ thickness: nonNegative, waterContent: positive }) }),
+  z.strictObject({ thickness, conductivity }),
+  z.strictObject({ springer: z.strictObject({ thickness, waterContent: within(positive, B.waterContent) }) }),
 ], {
   error: 'give one of { areaResistance [Ω·m²], referenceTemperature? [K], activationEnergy? [J/mol] }, { thickness [m], conductivity [S/m] } or { springer: { thickness [m], waterContent [λ] } }',
 });
 
 const currentEfficiencySchema = z.discriminatedUnion('model', [
   z.object({ model: z.literal('constant'), value: fraction01 }),
-  z.object({ model: z.literal('parasitic'), currentDensity: nonNegative }),
+  z.object({ model: z.literal('parasitic'), currentDensity: within(nonNegative, B.currentDensity) }),
   z.object({
     model: z.literal('competing'),
-    sideReaction: z.object({ kinetics: kineticsSchema, equilibriumPotentialShift: finite }),
+    sideReaction: z.object({ kinetics: kineticsSchema, equilibriumPotentialShift: within(finite, B.potential, true) }),
   }),
-  z.object({ model: z.literal('crossover'), hydrogenPermeability: nonNegative, membraneThickness: positive }),
+  z.object({ model: z.literal('crossover'), hydrogenPermeability: within(nonNegative, B.permeability), membraneThickness: thicknessPositive }),
 ]);
 
 export const cellDefinitionSchema = z
   .object({
     chemistry: z.enum(['chlor-alkali', 'alkaline-water', 'pem-water']),
-    temperature: positive,
-    pressure: positive,
+    temperature: temperatureK,
+    pressure: within(positive, B.pressure),
     composition: z
-      .object({ brineNaCl: positive.optional(), causticNaOH: positive.optional(), koh: positive.optional() })
+      .object({ brineNaCl: molality.optional(), causticNaOH: molality.optional(), koh: molality.optional() })
       .optional(),
-    reversiblePotential: positive.optional(),
+    reversiblePotential: within(positive, B.potential).optional(),
     anode: electrodeSchema,
     cathode: electrodeSchema,
     ohmic: z.object({
       membrane: membraneSchema.optional(),
       gaps: z.array(gapSchema).max(20).optional(),
-      hardware: nonNegative.optional(),
+      hardware: areaResistance.optional(),
     }),
     currentEfficiency: currentEfficiencySchema.optional(),
-    currentDensities: z.array(positive).min(1).max(MAX_SWEEP_POINTS),
+    currentDensities: z.array(currentDensity).min(1).max(MAX_SWEEP_POINTS),
     rectifierEfficiency: fraction01.optional(),
-    designCurrentDensity: positive.optional(),
-    kFactorRange: z.tuple([positive, positive]).optional(),
+    designCurrentDensity: currentDensity.optional(),
+    kFactorRange: z.tuple([currentDensity, currentDensity]).optional(),
   })
   .superRefine((def, ctx) => {
     if (def.kFactorRange && !(def.kFactorRange[0] < def.kFactorRange[1])) {

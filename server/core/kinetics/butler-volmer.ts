@@ -72,8 +72,10 @@ export interface ButlerVolmerParameters {
   cathodicTransferCoefficient: FittedParameter;
   /** Tafel slope per decade of the main branch (the one with more fitted points) [V/decade]. */
   tafelSlope: FittedParameter;
-  anodicTafelSlope: FittedParameter;
-  cathodicTafelSlope: FittedParameter;
+  /** Absent when the branch's α is zero at working precision (the slope is unbounded; see warnings). */
+  anodicTafelSlope?: FittedParameter;
+  /** Absent when the branch's α is zero at working precision (the slope is unbounded; see warnings). */
+  cathodicTafelSlope?: FittedParameter;
   uncompensatedResistance?: FittedParameter;
   anodicLimitingCurrentDensity?: FittedParameter;
   cathodicLimitingCurrentDensity?: FittedParameter;
@@ -373,7 +375,7 @@ function fitButlerVolmerWith(points: PolarizationPoint[], options: ButlerVolmerF
         const nEl = electrons as number;
         const sg = sigmoid(theta[iZ]);
         u.alphaA = nEl * sg;
-        u.alphaC = nEl * (1 - sg);
+        u.alphaC = nEl * sigmoid(-theta[iZ]); // = n − α_a, without cancellation at large z
         const d = nEl * sg * (1 - sg);
         u.alphaADep = [{ index: iZ, d }];
         u.alphaCDep = [{ index: iZ, d: -d }];
@@ -527,7 +529,8 @@ function fitButlerVolmerWith(points: PolarizationPoint[], options: ButlerVolmerF
     const sg = sigmoid(theta[iZ]);
     const dA = nEl * sg * (1 - sg);
     aa = mappedParameter(theta[iZ], seOf(iZ), t, (z) => nEl * sigmoid(z), dA, '1', `tied: α_a + α_c = ${nEl}`);
-    ac = mappedParameter(theta[iZ], seOf(iZ), t, (z) => nEl * (1 - sigmoid(z)), -dA, '1', `tied: α_a + α_c = ${nEl}`);
+    // α_c = n·σ(−z) (= n − α_a exactly, without the cancellation of n·(1 − σ(z)) at large z).
+    ac = mappedParameter(theta[iZ], seOf(iZ), t, (z) => nEl * sigmoid(-z), -dA, '1', `tied: α_a + α_c = ${nEl}`);
   } else {
     aa = fixedParameter(u.alphaA, '1', fixedAa !== undefined ? undefined : `from the tie α_a = n − α_c (n = ${electrons})`);
     ac = fixedParameter(u.alphaC, '1', fixedAc !== undefined ? undefined : `from the tie α_c = n − α_a (n = ${electrons})`);
@@ -536,10 +539,19 @@ function fitButlerVolmerWith(points: PolarizationPoint[], options: ButlerVolmerF
   ac.note = ac.note ?? 'cathodic transfer coefficient (IUPAC 2014: the reported quantity)';
   params.anodicTransferCoefficient = aa;
   params.cathodicTransferCoefficient = ac;
-  params.anodicTafelSlope = slopeFromAlpha(aa, f);
-  params.cathodicTafelSlope = slopeFromAlpha(ac, f);
+  const slopeA = tafelSlopeFromTransferCoefficient(aa, f, 'anodic', warnings);
+  const slopeC = tafelSlopeFromTransferCoefficient(ac, f, 'cathodic', warnings);
+  if (slopeA) params.anodicTafelSlope = slopeA;
+  if (slopeC) params.cathodicTafelSlope = slopeC;
   const mainBranch: Branch = options.branch ?? (nC > nA ? 'cathodic' : 'anodic');
-  params.tafelSlope = { ...(mainBranch === 'anodic' ? params.anodicTafelSlope : params.cathodicTafelSlope) };
+  const mainSlope = mainBranch === 'anodic' ? slopeA : slopeC;
+  if (!mainSlope) {
+    throw new PhysicsError(
+      'tafelSlope',
+      `the fitted ${mainBranch} transfer coefficient ran to 0, so the ${mainBranch} Tafel slope is unbounded: the overpotential hardly follows the current (a mass-transport plateau?); fit a limiting current, narrow the window, or fix the transfer coefficient`,
+    );
+  }
+  params.tafelSlope = { ...mainSlope };
   params.tafelSlope.note = options.branch ? `${mainBranch} branch (as requested)` : `${mainBranch} branch (the one with more fitted points)`;
   const profileOf = (k: number): ProfileEnds | null =>
     fit.converged && seOf(k) !== null ? profileInterval(model, theta, fit.covariance, k, fit.rss, dof, t) : null;
@@ -965,13 +977,48 @@ function mappedParameter(
   return out;
 }
 
-/** Tafel slope per decade ln10/(α f) from a transfer-coefficient parameter (interval mapped, SE by delta). */
-function slopeFromAlpha(alpha: FittedParameter, f: number): FittedParameter {
+/**
+ * Tafel slope per decade of one branch from its transfer coefficient:
+ *   b = ln10/(α·f), f = F/(RT) [1/V]  →  b [V/decade]; α dimensionless (> 0).
+ * Standard error by the delta method, SE(b) = b·SE(α)/α; the 95 % interval is the image of
+ * α's interval under the decreasing map α ↦ ln10/(α·f), i.e. [b(α_hi), b(α_lo)].
+ * Guards (never Infinity): when α's interval reaches 0 or below at working precision (α_lo ≤ 0,
+ * or b(α_lo) overflows) the slope has no finite upper 95 % bound — ci95 is null and a warning
+ * in `warnings` gives the one-sided statement the data support (b > b(α_hi)), as for an open
+ * limiting-current interval; a non-finite SE is reported as null. When α itself is ≤ 0 at
+ * working precision the slope is unbounded and null is returned (the caller omits it or
+ * refuses the fit). Source: Tafel slope b = 2.303·RT/(αF) (domain.md §3); delta method and
+ * interval mapping (common practice).
+ */
+export function tafelSlopeFromTransferCoefficient(alpha: FittedParameter, f: number, branch: Branch, warnings: string[]): FittedParameter | null {
   const value = Math.LN10 / (alpha.value * f);
-  const out: FittedParameter = { value, standardError: null, ci95: null, unit: 'V/decade' };
+  const name = branch === 'anodic' ? 'α_a' : 'α_c';
+  if (!(alpha.value > 0) || !Number.isFinite(value)) {
+    warnings.push(
+      `The ${branch} Tafel slope is not reported: the fitted ${name} = ${alpha.value.toPrecision(3)} is zero at working precision, so the slope ln10/(α·f) is unbounded (these data do not determine ${name}).`,
+    );
+    return null;
+  }
   if (alpha.fixed) return { value, standardError: 0, ci95: [value, value], unit: 'V/decade', fixed: true, note: 'from a fixed transfer coefficient' };
-  if (alpha.standardError !== null) out.standardError = (value * alpha.standardError) / alpha.value;
-  if (alpha.ci95) out.ci95 = [Math.LN10 / (alpha.ci95[1] * f), Math.LN10 / (alpha.ci95[0] * f)];
+  const out: FittedParameter = { value, standardError: null, ci95: null, unit: 'V/decade' };
+  if (alpha.standardError !== null) {
+    const se = (value * alpha.standardError) / alpha.value;
+    out.standardError = Number.isFinite(se) ? se : null;
+  }
+  if (alpha.ci95) {
+    const [aLo, aHi] = alpha.ci95;
+    const low = Math.LN10 / (aHi * f);
+    const high = Math.LN10 / (aLo * f);
+    if (aLo > 0 && Number.isFinite(high) && Number.isFinite(low) && low > 0) {
+      out.ci95 = [low, high];
+    } else {
+      out.note = `no finite upper 95 % bound: the interval on ${name} reaches 0`;
+      const supported = aHi > 0 && Number.isFinite(low) && low > 0 ? ` The data support only b > ${(low * 1000).toPrecision(3)} mV/decade.` : '';
+      warnings.push(
+        `The ${branch} Tafel slope has no finite upper bound at 95 % confidence: the interval on ${name} reaches 0 (${aLo.toPrecision(3)} to ${aHi.toPrecision(3)}).${supported} Treat the value ${(value * 1000).toPrecision(3)} mV/decade as indicative.`,
+      );
+    }
+  }
   return out;
 }
 

@@ -116,6 +116,12 @@ const MIN_OPTIONS = 2;
 const MAX_OPTIONS = 6;
 /** Relative size below which an energy-cost difference is float noise (1e-12, our choice). */
 const SAVING_NOISE = 1e-12;
+/**
+ * Longest simple payback reported as a number, years (1000, our choice: far beyond any
+ * coating or plant life; a longer one is reported as "never pays back", payback null, which
+ * also keeps a subnormal saving from overflowing the payback to Infinity).
+ */
+const MAX_PAYBACK_YEARS = 1000;
 
 function validate(input: CoatingComparisonInput): void {
   const issues: { path: string; message: string }[] = [];
@@ -225,6 +231,12 @@ export function compareCoatings(input: CoatingComparisonInput): CoatingCompariso
       if (extraCapital.lte(0) && saving.gte(0)) payback = new MoneyDecimal(0);
       else if (extraCapital.gt(0) && saving.gt(0)) payback = extraCapital.div(saving);
       else notes.push(extraCapital.gt(0) ? 'costs more and saves no energy: never pays back' : 'cheaper to buy but dearer to run');
+      if (payback !== null && !payback.lte(MAX_PAYBACK_YEARS)) {
+        // A saving so small (e.g. a few hours of operation a year, or a subnormal saving whose
+        // payback would overflow float64) that the extra capital never comes back.
+        payback = null;
+        notes.push(`saves too little energy to pay back the extra capital (simple payback over ${MAX_PAYBACK_YEARS} years): never pays back`);
+      }
       if (payback !== null && payback.gt(o.lifeYears)) notes.push(`simple payback ${sig(payback.toNumber(), 3)} yr is longer than the coating life`);
       if (Math.abs(w.currentEfficiency - ceBase) > 1e-12) notes.push('current efficiency differs from the baseline: energy compared at equal production');
     }

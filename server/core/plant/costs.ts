@@ -178,6 +178,36 @@ function costAt(input: CostInput, j: number, crf: number): CostBreakdown {
 }
 
 /**
+ * Check of a scanned cost figure before the optimum search: a cost that overflows float64
+ * over the search range would stop the search with no field named ("objective not finite");
+ * instead it is an InputError on the input that drives the overflow (the inputs are far
+ * outside any real plant, typically a unit slip):
+ *   specific energy U·z·F/(CE·M) not finite → `cell` (cell voltage or current efficiency);
+ *   energy cost w·p/3.6e6 not finite        → `energyPrice`;
+ *   CRF not finite (a life of ~1e-308 yr)   → `lifeYears`;
+ *   C·CRF not finite                         → `capitalCostPerArea`;
+ *   otherwise the capital cost per kg       → `operatingHoursPerYear` (hours × production too small).
+ */
+function requireFiniteCost(input: CostInput, cost: CostBreakdown, crf: number): CostBreakdown {
+  if (Number.isFinite(cost.totalCost)) return cost;
+  const at = `at ${sig(cost.currentDensity)} A/m²`;
+  const advice = 'some input is far outside the range of a real plant; check its unit';
+  if (!Number.isFinite(cost.specificEnergy)) {
+    throw new InputError('cell', `the specific energy overflows ${at} (cell voltage ${sig(cost.cellVoltage)} V, current efficiency ${sig(cost.currentEfficiency)}); ${advice}`);
+  }
+  if (!Number.isFinite(cost.energyCost)) {
+    throw new InputError('energyPrice', `the energy cost per kg overflows ${at} with an electricity price of ${sig(input.energyPrice)} per kWh; ${advice}`);
+  }
+  if (!Number.isFinite(crf)) {
+    throw new InputError('lifeYears', `the capital recovery factor overflows for a life of ${sig(input.lifeYears)} years; ${advice}`);
+  }
+  if (!Number.isFinite(input.capitalCostPerArea * crf)) {
+    throw new InputError('capitalCostPerArea', `the annual capital charge per m² overflows (capital ${sig(input.capitalCostPerArea)} per m² × capital recovery factor ${sig(crf)} per year); ${advice}`);
+  }
+  throw new InputError('operatingHoursPerYear', `the capital cost per kg overflows ${at}: ${sig(input.operatingHoursPerYear)} h/yr produce almost nothing; ${advice}`);
+}
+
+/**
  * Cost per kg of product at current density j [A/m²]: energy, capital and total [currency/kg]
  * with the specific energy [J/kg] and production per area [kg/(m²·s)]. Validates the input.
  */
@@ -208,8 +238,8 @@ export function costDisplay(input: CostInput, cost: CostBreakdown, places = 2): 
 
 /**
  * Closed-form economic current density of a linear cell with constant CE:
- * j* = √(1000·C·CRF/(H·p·K)) [A/m²] (derivation in the module note); null when K = 0
- * or the cell is not linear.
+ * j* = √(1000·C·CRF/(H·p·K)) [A/m²] (derivation in the module note); null when K = 0,
+ * when j* overflows float64 (K negligible against the capital charge), or the cell is not linear.
  */
 export function closedFormEconomicCurrentDensity(input: CostInput): number | null {
   validate(input);
@@ -217,7 +247,8 @@ export function closedFormEconomicCurrentDensity(input: CostInput): number | nul
   const crf = crfNumber(input);
   const capitalPerAreaSecond = (input.capitalCostPerArea * crf) / (input.operatingHoursPerYear * SECONDS_PER_HOUR); // currency/(m²·s)
   const pricePerJoule = input.energyPrice / JOULES_PER_KWH; // currency/J
-  return Math.sqrt(capitalPerAreaSecond / (pricePerJoule * input.cell.slope));
+  const jStar = Math.sqrt(capitalPerAreaSecond / (pricePerJoule * input.cell.slope));
+  return Number.isFinite(jStar) ? jStar : null;
 }
 
 /**
@@ -234,7 +265,7 @@ export function economicCurrentDensity(input: CostInput): EconomicCurrentDensity
   const lnMax = Math.log(input.currentDensityRange.max);
   const total = (lnJ: number) => costAt(input, Math.exp(lnJ), crf).totalCost;
   const grid = Array.from({ length: SCAN_POINTS }, (_, k) => lnMin + ((lnMax - lnMin) * k) / (SCAN_POINTS - 1));
-  const values = grid.map(total);
+  const values = grid.map((lnJ) => requireFiniteCost(input, costAt(input, Math.exp(lnJ), crf), crf).totalCost);
   let best = 0;
   for (let k = 1; k < SCAN_POINTS; k++) if (values[k] < values[best]) best = k;
   const lo = grid[Math.max(0, best - 1)];

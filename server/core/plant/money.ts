@@ -44,9 +44,62 @@ function checkRateAndYears(rate: number, years: number): void {
 }
 
 /**
+ * Below this |argument| ln(1+x) and e^x − 1 are summed as power series instead of through
+ * ln/exp, whose results lose the leading digits to cancellation there (1e-3, our choice: the
+ * series then reach the 40-digit working precision within 15 terms).
+ */
+const SERIES_THRESHOLD = new MoneyDecimal('1e-3');
+/** Relative size of the last series term kept (1e-45, our choice: below the 40 working digits). */
+const SERIES_TOLERANCE = new MoneyDecimal('1e-45');
+/** Safety cap on series terms (never reached below SERIES_THRESHOLD; our choice). */
+const SERIES_MAX_TERMS = 100;
+
+/**
+ * ln(1 + x) without cancellation for small |x| (x > −1): the Mercator series
+ * x − x²/2 + x³/3 − … for |x| < SERIES_THRESHOLD, else ln(1 + x) in working precision.
+ * Source: Taylor series of ln(1 + x) (common practice, as in C's log1p).
+ */
+function log1p(x: Decimal): Decimal {
+  if (x.abs().gte(SERIES_THRESHOLD)) return x.plus(1).ln();
+  let power = x;
+  let sum = x;
+  for (let k = 2; k <= SERIES_MAX_TERMS; k++) {
+    power = power.times(x).neg();
+    const term = power.div(k);
+    sum = sum.plus(term);
+    if (term.abs().lte(sum.abs().times(SERIES_TOLERANCE))) break;
+  }
+  return sum;
+}
+
+/**
+ * e^x − 1 without cancellation for small |x|: the series x + x²/2! + x³/3! + … for
+ * |x| < SERIES_THRESHOLD, else e^x − 1 in working precision.
+ * Source: Taylor series of the exponential (common practice, as in C's expm1).
+ */
+function expm1(x: Decimal): Decimal {
+  if (x.abs().gte(SERIES_THRESHOLD)) return x.exp().minus(1);
+  let term = x;
+  let sum = x;
+  for (let k = 2; k <= SERIES_MAX_TERMS; k++) {
+    term = term.times(x).div(k);
+    sum = sum.plus(term);
+    if (term.abs().lte(sum.abs().times(SERIES_TOLERANCE))) break;
+  }
+  return sum;
+}
+
+/**
  * Capital recovery factor CRF(i, n) = i(1+i)ⁿ/((1+i)ⁿ − 1) [1/yr]: the level annual payment
  * that repays 1 unit of capital over n years at rate i. Limit i → 0: 1/n.
  * i: fraction per year (> −1); n: years (> 0, need not be whole).
+ * Evaluated as CRF = i / (1 − (1+i)^−n) = −i / expm1(−n·ln(1+i)), with ln(1+i) and e^x − 1
+ * summed as series for small arguments (log1p, expm1 above), so that neither a tiny rate
+ * (1 + i rounding to 1) nor a tiny i·n ((1+i)ⁿ rounding to 1) divides by zero: the result
+ * tends smoothly to the limit 1/n (e.g. i = 1e-302 → 1/n to working precision).
+ * Throws InputError ('discountRate' > −1, 'lifeYears' > 0, both finite), and on
+ * 'discountRate' when the factor leaves the decimal range (a negative rate close to −1 over a
+ * very long life makes (1+i)^−n overflow).
  * Source: standard engineering-economics capital recovery factor (e.g. the (A/P, i, n) factor
  * of engineering-economy texts). i = 8 %, n = 10 → 0.149 029 488…
  */
@@ -55,8 +108,15 @@ export function capitalRecoveryFactor(rate: number, years: number): Decimal {
   const n = new MoneyDecimal(years);
   if (rate === 0) return new MoneyDecimal(1).div(n);
   const i = new MoneyDecimal(rate);
-  const growth = i.plus(1).pow(n);
-  return i.times(growth).div(growth.minus(1));
+  const denominator = expm1(n.times(log1p(i)).neg()).neg(); // 1 − (1+i)^−n, same sign as i
+  const crf = i.div(denominator);
+  if (!crf.isFinite() || crf.isZero() || crf.isNegative()) {
+    throw new InputError(
+      'discountRate',
+      `a rate of ${rate} per year over ${years} years gives a capital recovery factor outside the range of the arithmetic; check the rate (a fraction per year, e.g. 0.08 for 8 %) and the life (years)`,
+    );
+  }
+  return crf;
 }
 
 /**

@@ -21,7 +21,7 @@
 import { FARADAY } from '../constants.js';
 import { InputError } from '../errors.js';
 import { fromSI } from '../units.js';
-import { sig, percent } from './format.js';
+import { sci, sig, percent } from './format.js';
 import { findRootBracketed } from './optimize1d.js';
 import {
   type CellPerformance,
@@ -163,6 +163,20 @@ export interface SizingResult {
   warnings: string[];
 }
 
+/**
+ * Largest cell count a sizing lays out (1 000 000, our choice, the same bound as the web
+ * layer's front-door check): the largest chlor-alkali and water-electrolysis plants have some
+ * thousands to tens of thousands of cells; more than a million means a unit slip (kg/s taken
+ * as t/d, cm² as m², A/cm² as A/m²), and laying out such a plant would exhaust memory.
+ */
+export const MAX_PLANT_CELLS = 1_000_000;
+/**
+ * Smallest target, as a fraction of what one cell makes at the design point (1e-6, our choice,
+ * the same bound as the web layer's): below it the "plant" is one cell idling at under a
+ * millionth of its design current density, which no sizing question asks.
+ */
+export const MIN_CELL_FRACTION = 1e-6;
+
 /** Relative slack when a cell count is an integer up to rounding (1e-9, our choice). */
 const WHOLE_COUNT_SLACK = 1e-9;
 /** Warn when the operating current density falls this far below design (10 %, our choice). */
@@ -208,6 +222,29 @@ function validate(input: SizingInput): void {
 }
 
 /**
+ * Refuse a plant whose cell count N = ṁ·z·F/(CE·M·j·A_cell) (Faraday's law) is not finite,
+ * above MAX_PLANT_CELLS or below MIN_CELL_FRACTION of one cell: InputError on the production
+ * target (`target.massRate`), naming the count and the likely unit slip. A real plant has at
+ * least one cell, so a count between MIN_CELL_FRACTION and 1 is sized as one cell.
+ */
+function checkPlantScale(input: SizingInput, cellsExact: number): void {
+  const at = `cells of ${sig(input.activeAreaPerCell)} m² at ${sig(input.designCurrentDensity)} A/m²`;
+  if (!(cellsExact <= MAX_PLANT_CELLS)) {
+    const count = Number.isFinite(cellsExact) ? sci(cellsExact, 2) : 'more than 1e308';
+    throw new InputError(
+      'target.massRate',
+      `would need ${count} ${at}, above the ${sci(MAX_PLANT_CELLS)} cells a sizing lays out; check the units of the production rate (kg/s), design current density (A/m²) and cell area (m²)`,
+    );
+  }
+  if (!(cellsExact >= MIN_CELL_FRACTION)) {
+    throw new InputError(
+      'target.massRate',
+      `would need only ${sci(cellsExact, 2)} of one cell (${at}), below ${sci(MIN_CELL_FRACTION)} of a cell; check the units of the production rate (kg/s), design current density (A/m²) and cell area (m²)`,
+    );
+  }
+}
+
+/**
  * Operating current density that meets the target exactly with `cells` whole cells:
  * solve N·A_cell·j·CE(j) = ṁ·z·F/M for j ≤ j_design. With constant CE this is
  * j = I/(N·A_cell) in closed form; with a cell model, a bracketed root search stepping down
@@ -233,8 +270,10 @@ function operatingCurrentDensity(input: SizingInput, cells: number, chargeRate: 
 /**
  * Size the cell room and rectifiers for a production target. See the module note for the
  * formulas. Units: SI in, SI out (A, V, W, m², kg/s, mol/s, J/kg; gas volumes also Nm³/h).
- * Throws InputError (with paths) for a non-positive rate, CE outside (0, 1], or a rectifier
- * that cannot take even one cell at the design point (current or voltage).
+ * Throws InputError (with paths) for a non-positive rate, CE outside (0, 1], a target that
+ * needs more than MAX_PLANT_CELLS cells or less than MIN_CELL_FRACTION of one (at
+ * `target.massRate`; a fraction of a cell above that is sized as one whole cell), or a
+ * rectifier that cannot take even one cell at the design point (current or voltage).
  */
 export function sizePlant(input: SizingInput): SizingResult {
   validate(input);
@@ -249,7 +288,8 @@ export function sizePlant(input: SizingInput): SizingResult {
   const designCurrent = chargeRate / design.currentEfficiency;
   const designArea = designCurrent / input.designCurrentDensity;
   const cellsExact = designArea / input.activeAreaPerCell;
-  const cells = ceilWhole(cellsExact);
+  checkPlantScale(input, cellsExact);
+  const cells = Math.max(1, ceilWhole(cellsExact));
 
   // Rectifier limits at the design point.
   const designCellCurrent = input.activeAreaPerCell * input.designCurrentDensity;
@@ -339,7 +379,7 @@ export function sizePlant(input: SizingInput): SizingResult {
   const shortfall = 1 - op.currentDensity / input.designCurrentDensity;
   if (shortfall > OPERATING_SHORTFALL_WARNING) {
     warnings.push(
-      `Rounding up to ${cells} whole cells puts the operating current density ${percent(shortfall, 3)} below design (${sig(op.currentDensity)} vs ${sig(input.designCurrentDensity)} A/m²); consider a different cell area or design current density.`,
+      `Rounding up to ${cells} whole cell${cells === 1 ? '' : 's'} puts the operating current density ${percent(shortfall, 3)} below design (${sig(op.currentDensity)} vs ${sig(input.designCurrentDensity)} A/m²); consider a different cell area or design current density.`,
     );
   }
   if (heatLoad < 0) {
