@@ -3,7 +3,8 @@
  * (forms, CSV paste, study files) and converted back only for display.
  *
  * Each factor is exact by definition of the unit (SI prefixes, 1 bar = 1e5 Pa,
- * 1 h = 3600 s, 1 kWh = 3.6e6 J); °C is an offset scale handled separately.
+ * 1 h = 3600 s, 1 kWh = 3.6e6 J); °C is an offset scale handled separately. The one
+ * convention: 't/year' uses a 365-day year (our choice; leap days ignored).
  */
 import { InputError } from './errors.js';
 import { ZERO_CELSIUS_K } from './constants.js';

@@ -40,6 +40,8 @@ describe('water saturation temperature (IAPWS-IF97, region 4)', () => {
 });
 
 describe('hydrogen in oxygen (LFL 4 vol %: Zabetakis 1965; GEST 91/168)', () => {
+  // Screens 1 % (alarm) and 2 % (trip, half the LFL): common practice, check-values §10 —
+  // numbers from memory there (e.g. Haug et al. 2017; Schalenbach et al. 2016).
   it('ok below 1 %, caution from 1 %, alarm from 2 % (half the LFL)', () => {
     expect(checkHydrogenInOxygen(0.005).level).toBe('ok');
     expect(checkHydrogenInOxygen(0.015).level).toBe('caution');

@@ -41,6 +41,8 @@ describe('water density (Kell 1975)', () => {
 });
 
 describe('Debye–Hückel osmotic slope A^φ (Møller 1988)', () => {
+  // check-values §4b: 0.3915 seen as a default in public code; its attribution to Pitzer (1991)
+  // / Archer & Wang (1990) is from memory.
   it('0.3915 kg^½ mol^−½ at 25 °C (Pitzer 1991 ch. 3 Table 1, seen via secondary; tolerance 5e-5 = rounding)', () => {
     expectClose(debyeHuckelOsmoticSlope(298.15), 0.3915, { atol: 5e-5 }, 'A^φ(25 °C)');
   });

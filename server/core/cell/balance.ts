@@ -115,6 +115,7 @@ function membraneResistance(membrane: Membrane | undefined, def: CellDefinition,
     if (membrane.activationEnergy !== undefined && membrane.referenceTemperature !== undefined) {
       return membraneAreaResistanceAt(membrane.areaResistance, membrane.referenceTemperature, membrane.activationEnergy, T, 'ohmic.membrane');
     }
+    // Warn beyond 1 K between T_ref and T (project choice).
     if (membrane.referenceTemperature !== undefined && Math.abs(membrane.referenceTemperature - T) > 1) {
       warnings.push(
         `ohmic.membrane: area resistance given at ${membrane.referenceTemperature.toFixed(2)} K without an activation energy; used unchanged at ${T.toFixed(2)} K`,

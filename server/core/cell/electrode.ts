@@ -19,8 +19,8 @@ export type ElectrodeRole = 'anode' | 'cathode';
 
 /**
  * Below this multiple of j0 a Tafel line is outside its usual range (the back reaction is no
- * longer negligible): one decade above j0, i.e. |η| below one Tafel slope per decade
- * (common practice; domain.md §3 "Tafel window").
+ * longer negligible): one decade above j0, i.e. |η| below one Tafel slope per decade (project
+ * choice, in line with the common-practice Tafel window of domain.md §3).
  */
 export const TAFEL_MIN_RATIO_TO_J0 = 10;
 
@@ -71,6 +71,7 @@ export function prepareKinetics(
     }
     lnArrheniusFactor = Math.log(j0 / kinetics.exchangeCurrentDensity);
   } else if (tRef !== undefined && Math.abs(tRef - temperatureK) > 1) {
+    // 1 K: warning threshold, project choice.
     warnings.push(
       `${path}: exchange current density given at ${tRef.toFixed(2)} K but no activation energy; ` +
         `it is used unchanged at the cell temperature ${temperatureK.toFixed(2)} K`,

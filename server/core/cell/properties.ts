@@ -96,9 +96,9 @@ export function electrolyteConductivity(
   }
 }
 
-/** Void fraction above which the Maxwell (dilute) relation is stretched (common practice, transport/voids.ts). */
+/** Void fraction above which the Maxwell (dilute) relation is stretched (0.2: project choice; Maxwell's dilute range ≈ 0.1–0.2 is from memory, transport/voids.ts). */
 export const MAXWELL_DILUTE_LIMIT = 0.2;
-/** Practical maximum gas fraction near zero-gap electrodes, ≈ 0.65 (van der Does et al. 2025; check-values §7). */
+/** Practical maximum gas fraction near zero-gap electrodes, ≈ 0.65 (van der Does, Valle & Haverkort, Int. J. Hydrogen Energy 102 (2025) 295–303; check-values §7, source seen on the author's blog). */
 export const PRACTICAL_MAX_VOID_FRACTION = 0.65;
 
 /**

@@ -54,7 +54,7 @@ export const PLAUSIBILITY_BOUNDS = {
   thickness: { max: 1, unit: 'm' },
   /**
    * S/m: 1e-6 to 1e4; electrolytes and ionomers are 1–200 S/m, ultrapure water 5.5e-6 S/m
-   * (our plausibility bound; below it the ohmic drop alone would overflow).
+   * (from memory) (our plausibility bound; below it the ohmic drop alone would overflow).
    */
   conductivity: { min: 1e-6, max: 1e4, unit: 'S/m' },
   /** Ω·m²: 1 (= 1e4 Ω·cm²); cell area resistances are 1e-5–1e-4 Ω·m² (our plausibility bound). */
@@ -66,9 +66,9 @@ export const PLAUSIBILITY_BOUNDS = {
   molality: { min: 1e-6, max: 100, unit: 'mol/kg' },
   /** V: 10; reversible cell voltages of electrolysis are 1–3 V (our plausibility bound). */
   potential: { max: 10, unit: 'V' },
-  /** λ (H₂O per sulfonic group): 100; a fully hydrated PFSA membrane holds about 22 (our plausibility bound). */
+  /** λ (H₂O per sulfonic group): 100; a fully hydrated PFSA membrane holds about 22 (check-values §6) (our plausibility bound). */
   waterContent: { max: 100, unit: 'H₂O per sulfonic group' },
-  /** mol/(m·s·Pa): 1e-6, far above the ~1e-14 of ionomer membranes (our plausibility bound). */
+  /** mol/(m·s·Pa): 1e-6, far above the ~1e-14 of ionomer membranes (from memory) (our plausibility bound). */
   permeability: { max: 1e-6, unit: 'mol/(m·s·Pa)' },
 } as const;
 
@@ -137,6 +137,7 @@ export const kineticsSchema = z.discriminatedUnion('model', [tafelSchema, butler
 const electrodeSchema = z.object({
   kinetics: kineticsSchema,
   limitingCurrentDensity: currentDensity.optional(),
+  // 1–8 electrons per reacting molecule (O₂ needs 4; 8 is our plausibility bound).
   electrons: z.number().int().min(1).max(8).optional(),
 });
 
@@ -184,6 +185,7 @@ export const cellDefinitionSchema = z
     cathode: electrodeSchema,
     ohmic: z.object({
       membrane: membraneSchema.optional(),
+      // At most 20 gap layers (our plausibility bound).
       gaps: z.array(gapSchema).max(20).optional(),
       hardware: areaResistance.optional(),
     }),

@@ -22,7 +22,10 @@ import { prepareCell, voltageBalance, type BalanceFlags, type PreparedCell } fro
 import { currentEfficiencyAt, gasPurityWarnings } from './efficiency.js';
 import type { CellDefinition, CellSweepResult, KFactorResult, ProductId, SweepPoint } from './types.js';
 
-/** Fraction of the largest swept current density where the default K-factor range starts (common practice: the linear upper part of the curve). */
+/**
+ * Fraction of the largest swept current density where the default K-factor range starts
+ * (1/3: project choice; fitting K over the linear upper part of the curve is common practice).
+ */
 export const K_FACTOR_DEFAULT_LOWER_FRACTION = 1 / 3;
 /** Fewest points for a K-factor line with a standard error (n − 2 ≥ 1). */
 export const K_FACTOR_MIN_POINTS = 3;

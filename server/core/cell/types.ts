@@ -34,7 +34,8 @@ export interface Composition {
  *    `cathodicTransferCoefficient` at the cathode (the other coefficient is held fixed);
  *    standard error `transferCoefficientSE`;
  *  - `correlation` = corr(θ1, θ2) in [−1, 1]. A Tafel fit η = a + b ln j gives strongly
- *    correlated ln j0 = −a/b and α = RT/(bF), typically |ρ| > 0.9.
+ *    correlated ln j0 = −a/b and α = RT/(bF), typically |ρ| > 0.9 (our observation for data
+ *    that lie decades away from j0; not a published figure).
  * The pair is treated as bivariate normal (the usual asymptotic reading of a least-squares fit).
  */
 export interface KineticUncertainty {
@@ -167,7 +168,7 @@ export interface CellDefinition {
   rectifierEfficiency?: number;
   /** Design current density, A/m²: reported as `designPoint`. */
   designCurrentDensity?: number;
-  /** Current-density range [lo, hi] A/m² of the K-factor line; default [max j / 3, max j]. */
+  /** Current-density range [lo, hi] A/m² of the K-factor line; default [max j / 3, max j] (project choice, see sweep.ts). */
   kFactorRange?: [number, number];
 }
 

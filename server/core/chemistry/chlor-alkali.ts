@@ -16,8 +16,9 @@
  *
  * Data: NBS-82 "ao" values for NaCl(aq) and NaOH(aq) (E° = 2.1880 V at 25 °C, check-values
  * §2b), Shomate for the gases and water, constant Cp° for the aqueous salts. Activities from
- * Pitzer (thermo/activity.ts). At plant strengths (≈ 3.5–5 mol/kg depleted brine; 32 wt %
- * NaOH ≈ 11.8 mol/kg; 85–90 °C) the NaOH activity coefficient is a far extrapolation of the
+ * Pitzer (thermo/activity.ts). At plant strengths (depleted brine ≈ 3.5–4 mol/kg, domain.md §4,
+ * i.e. 200–220 g/L, check-values §9a, from memory; 32 wt % NaOH ≈ 11.8 mol/kg, derived; 85–90 °C,
+ * from memory) the NaOH activity coefficient is a far extrapolation of the
  * Pitzer fit: every result then carries warnings, and `details` gives the spread of the
  * Nernst term between temperature-expanded and 25 °C Pitzer parameters as a rough
  * indication of that uncertainty.
@@ -35,6 +36,7 @@ import type { Stoichiometry } from '../thermo/reaction.js';
 import { HYDROGEN, idealGasWarning, validateConditions } from './common.js';
 import type { Chemistry, OperatingConditions, Product, ReversibleResult } from './types.js';
 
+/** 0–100 °C: the trusted range of the constant-Cp aqueous species (thermo/species.ts; our approximation window). */
 const RANGE: [number, number] = [273.15, 373.15];
 const ELECTRONS = 2;
 

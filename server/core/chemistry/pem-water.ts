@@ -15,6 +15,7 @@
 import { HYDROGEN, OXYGEN, WATER_ELECTRONS, validateConditions, waterSplittingReversible } from './common.js';
 import type { Chemistry, OperatingConditions, ReversibleResult } from './types.js';
 
+/** 0–150 °C: see the module doc (water thermodynamics). */
 const RANGE: [number, number] = [273.15, 423.15];
 
 export const PEM_WATER: Chemistry = {

@@ -9,7 +9,8 @@
  * The covariance then uses the stated errors (known σ, normal quantile), unless the scatter
  * exceeds them (reduced χ² = Σw·e²/(n − 2) > 1), in which case it is scaled by χ²_red and
  * t_{0.975, n−2} is used (so the intervals never shrink below what the scatter shows;
- * common practice, e.g. the Birge-ratio inflation). Without SEs: ordinary least squares,
+ * common practice, e.g. the Birge-ratio inflation, R. T. Birge, Phys. Rev. 40 (1932) 207 —
+ * citation from memory). Without SEs: ordinary least squares,
  * covariance s²(XᵀX)⁻¹, t on n − 2.
  * E_a = −R·slope with a symmetric interval; j0(T_ref) = e^{intercept} with the asymmetric
  * interval exp(intercept ± t·SE).
@@ -60,6 +61,7 @@ export interface ArrheniusResult {
 
 /** Temperature span below which E_a is weakly determined (project choice; 10 K). */
 const MIN_SPAN_K = 10;
+/** Points of the plotted j0(T) curve (display resolution; project choice). */
 const CURVE_POINTS = 40;
 
 /** Fit E_a and j0(T_ref) to (T, j0 ± SE) points (see file header). */

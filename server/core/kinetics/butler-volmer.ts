@@ -107,11 +107,15 @@ export interface ButlerVolmerFitResult {
 
 /** Relative SE of a positive parameter (SE of its log) above which it is "not determined" (100 %; project choice). */
 const MAX_RELATIVE_SE = 1;
-/** |correlation| above which two parameters are reported as not separable (brief: 0.99). */
+/** |correlation| above which two parameters are reported as not separable (0.99; project choice, set in the project brief). */
 const MAX_CORRELATION = 0.99;
 /** Fitted limiting current beyond this multiple of the largest measured |j| → "no sign of a limit" (project choice). */
 const LIMIT_RUNAWAY_FACTOR = 100;
-/** Transfer coefficients outside this range are flagged as implausible (project choice; IUPAC values are O(0.1–4)). */
+/**
+ * Transfer coefficients outside this range are flagged as implausible (project choice;
+ * reported transfer coefficients lie mostly between about 0.1 and 4 — from memory, not an
+ * IUPAC figure).
+ */
 const ALPHA_PLAUSIBLE: [number, number] = [0.05, 5];
 /** Lowest allowed φ (keeps j_lim − j_max > 0 in floating point). */
 const PHI_MIN = -700;
@@ -159,6 +163,7 @@ const PROFILE_MAX_EXPANSION = 4;
 const PROFILE_LM_OPTIONS = { ftol: 1e-10, xtol: 1e-10, gtol: 1e-10, checkJacobian: false, maxEvaluations: 60 } as const;
 /** Clamp of starting transfer coefficients (project choice). */
 const ALPHA_START_RANGE: [number, number] = [0.1, 3];
+/** Points per branch of the plotted model curve (display resolution; project choice). */
 const CURVE_POINTS_PER_BRANCH = 50;
 
 type Dep = { index: number; d: number }[];
@@ -259,6 +264,7 @@ function fitButlerVolmerWith(points: PolarizationPoint[], options: ButlerVolmerF
   const fixedAc = checkAlpha(options.cathodicTransferCoefficient, 'cathodicTransferCoefficient');
   const tie = options.tieTransferCoefficients === true;
   if (tie && electrons === undefined) throw new InputError('electrons', 'is needed to tie α_a + α_c = n');
+  // Relative tolerance 1e-12 on α_a + α_c = n: rounding of user input only (project choice).
   if (tie && fixedAa !== undefined && fixedAc !== undefined && Math.abs(fixedAa + fixedAc - (electrons as number)) > 1e-12 * (electrons as number)) {
     throw new InputError('tieTransferCoefficients', `α_a + α_c = ${fixedAa + fixedAc} differs from n = ${electrons}`);
   }
@@ -297,6 +303,7 @@ function fitButlerVolmerWith(points: PolarizationPoint[], options: ButlerVolmerF
     if (fixedAa !== undefined || fixedAc !== undefined) alphaMode = 'tied-fixed';
     else {
       alphaMode = 'tied';
+      // Starting share α_a/n kept in [0.05, 0.95] so the logit start is finite (project choice).
       const share = Math.min(0.95, Math.max(0.05, alphaA0 / (alphaA0 + alphaC0)));
       iZ = start.length;
       names.push('logit(α_a/n)');
@@ -417,7 +424,9 @@ function fitButlerVolmerWith(points: PolarizationPoint[], options: ButlerVolmerF
     levenbergMarquardt({ residuals: (th) => model.residuals(th), jacobian: (th) => model.jacobian(th), start: s0 });
   let fit = runFit(start);
   if (!fit.converged) {
-    // Second start: symmetric α = 0.5 and a limiting current at twice the largest |j|.
+    // Second start: symmetric α = 0.5 (the textbook symmetry-factor value, check-values §11,
+    // from memory; only a start) and a limiting current at twice the largest |j| (φ = 0).
+    // Project choice.
     const alt = start.slice();
     if (iAa >= 0) alt[iAa] = Math.log(0.5);
     if (iAc >= 0) alt[iAc] = Math.log(0.5);
@@ -1044,6 +1053,10 @@ interface Starts {
  * from their intercepts (mean of ln j0), α from their slopes; else the low-field slope
  * R_ct⁻¹ = dj/dη gives j0 = (dj/dη)/(f·(α_a + α_c)). The limiting-current start comes from
  * the largest point: 1/j_lim = 1/j − 1/j_kinetic (series combination).
+ * The heuristics here are project choices and only set the starting point: at least 3
+ * high-field points per line (else the upper half of the branch), the lower 80 % of them when
+ * there are 6 or more, α = 0.5 when a branch has no line, no limit start unless the top point
+ * lies more than ln-ratio 1e-3 below the line, and the start φ clamped to [−3, 5].
  */
 function startingValues(J: number[], H: number[], T: number, knownRu: number): Starts {
   const f = faradayOverRT(T);

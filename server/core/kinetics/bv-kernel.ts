@@ -114,7 +114,7 @@ export function branchEval(k: BranchKernel, x: number, out: BranchEval): BranchE
   return out;
 }
 
-/** Maximum Newton iterations; monotone convergence needs far fewer (typically 3–8). */
+/** Maximum Newton iterations; monotone convergence needs far fewer (typically 3–8). A generous cap: project choice. */
 const MAX_NEWTON_ITERATIONS = 200;
 /**
  * Relative Newton step below which the iteration stops after taking that step. Newton on
@@ -154,7 +154,9 @@ export function solveBranch(
     let lnKin = lnTarget;
     if (limited) lnKin = lnTarget - Math.log(-Math.expm1(lnTargetOverLimit));
     const z = lnKin - k.lnJ0;
+    // Above z = 30, ln(1 + e^z) = z to within e^−30 ≈ 1e-13 (negligible for a start value).
     x = (z > 30 ? z : Math.log1p(Math.exp(z))) / k.forwardSlope;
+    // Fallback start: a tiny positive |η| [V]; the bracket logic then walks up (project choice).
     if (!(x > 0) || !Number.isFinite(x)) x = 1e-300;
   }
   let lo = 0;

@@ -144,6 +144,7 @@ export function compareTafelButlerVolmer(points: PolarizationPoint[], options: C
     preferred = 'tafel';
     verdict = `On ${basisText}, the Tafel line is preferred (ΔAIC = ${deltaAic.toFixed(1)}, ΔBIC = ${deltaBic.toFixed(1)}): the extra Butler–Volmer parameters do not improve the fit enough to pay for themselves.`;
   }
+  // The same 2-unit threshold is used for |ΔBIC| (project choice).
   if (Math.sign(deltaAic) !== Math.sign(deltaBic) && Math.abs(deltaBic) > AIC_NEGLIGIBLE) {
     warnings.push(`AIC and BIC disagree (ΔAIC = ${deltaAic.toFixed(1)}, ΔBIC = ${deltaBic.toFixed(1)}); BIC penalises extra parameters more strongly for many points. Treat the choice as open.`);
   }

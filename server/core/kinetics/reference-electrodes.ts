@@ -50,7 +50,7 @@ export interface ReferenceElectrode {
  *   Table 2 (seen): SCE 0.2410, Ag/AgCl 1.0 M KCl 0.2360, Ag/AgCl sat. KCl 0.1970,
  *   Hg/HgO 0.1 M NaOH 0.165, Hg/Hg₂SO₄ 1.0 M H₂SO₄ 0.6739.
  * - consultrsr.net table (seen), its cited ref. 10: Ag/AgCl 3 M KCl 0.210.
- * - J. Power Sources 161 (2006) 1217–1224, "Hg/HgO electrode and hydrogen evolution
+ * - J. Power Sources 161(2) (2006) 1217–1224, "Hg/HgO electrode and hydrogen evolution
  *   potentials in aqueous sodium hydroxide" (abstract seen): computed Hg/HgO potential vs
  *   NHE at 25 °C of 0.1634 V (0.100 mol/kg), 0.1077 V (1.00 mol/kg), 0.0976 V (1.45 mol/kg NaOH).
  *   Note: the often quoted "0.098 V" (domain.md, from memory) matches the unit-OH⁻-activity
@@ -139,9 +139,9 @@ export type ReferenceSpec =
   | { id: 'rhe'; pH: number }
   | { id: 'custom'; potentialVsShe: number; label?: string };
 
-/** Temperature away from 25 °C beyond which the 25 °C reference table earns a warning [K] (common practice). */
+/** Temperature away from 25 °C beyond which the 25 °C reference table earns a warning [K] (project choice). */
 const REFERENCE_TEMPERATURE_TOLERANCE_K = 5;
-/** Plausible pH range for an aqueous RHE scale (common practice; outside → InputError). */
+/** Plausible pH range for an aqueous RHE scale (project choice: −2 to 16 covers concentrated acids and bases; outside → InputError). */
 const PH_MIN = -2;
 const PH_MAX = 16;
 
@@ -176,6 +176,7 @@ export function referencePotentialVsShe(ref: ReferenceSpec, temperatureK: number
   const entry = (REFERENCE_ELECTRODES as Record<string, ReferenceElectrode | undefined>)[ref.id];
   if (!entry) throw new InputError(`${path}.id`, `unknown reference electrode "${String(ref.id)}"`, ref.id);
   if (Math.abs(temperatureK - T_STANDARD.value) > REFERENCE_TEMPERATURE_TOLERANCE_K) {
+    // 273.15 in the message: 0 °C in K (exact, as ZERO_CELSIUS_K in constants.ts).
     warnings.push(
       `The ${entry.name} potential (${entry.potentialVsShe.toFixed(4)} V vs SHE) is tabulated at 25 °C; at ${(temperatureK - 273.15).toFixed(1)} °C it shifts by up to several mV (temperature coefficient not applied). Enter a calibrated custom value if that matters.`,
     );

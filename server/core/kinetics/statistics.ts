@@ -76,7 +76,8 @@ const RSS_FLOOR_RELATIVE = Number.EPSILON;
  *   −2 ln L = n·[ln(2π·RSS/n) + 1],  AIC = −2 ln L + 2k,  BIC = −2 ln L + k·ln n,
  * with k = (free model parameters) + 1 (σ). The same definition is used for every model so
  * that AIC/BIC differences over the SAME points are comparable (additive constants cancel).
- * Source: Akaike (1974); Schwarz (1978); least-squares form e.g. Burnham & Anderson,
+ * Source: H. Akaike, IEEE Trans. Autom. Control 19 (1974) 716–723; G. Schwarz, Ann. Stat. 6
+ * (1978) 461–464 (journal details from memory); least-squares form e.g. Burnham & Anderson,
  * Model Selection and Multimodel Inference, 2nd ed. (2002), §2.2 (from memory).
  * `dataScale` [V] sets a floor on RSS (exact data would give ln 0).
  */

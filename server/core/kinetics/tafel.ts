@@ -100,7 +100,7 @@ export interface TafelFitResult {
   warnings: string[];
 }
 
-/** Number of points of the plotted fitted line. */
+/** Number of points of the plotted fitted line (display resolution; project choice). */
 const CURVE_POINTS = 60;
 
 /** Choose the branch: the one requested, else the one with more points (ties: anodic). */

@@ -1,7 +1,8 @@
 /**
- * Plain-language warnings of the kinetics fits. Thresholds are the common-practice rules of
+ * Plain-language warnings of the kinetics fits. Thresholds: the common-practice rules of
  * thumb in domain.md §3 (Tafel window): R² ≥ 0.99, at least one decade of current, |η| above
- * the low-field region, at least five points.
+ * the low-field region; and two project choices not in domain.md: at least five points and
+ * the 20 % limit on the slope rise (MAX_SLOPE_RISE).
  */
 
 /** R² below which a Tafel line is "not linear enough" (common practice, domain.md §3). */

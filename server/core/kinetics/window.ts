@@ -28,7 +28,7 @@ const MAX_CANDIDATES = 150;
 const MAX_TEST_POINTS = 2000;
 /** Candidates per stage of the coarse-then-fine scan on longer records (project choice). */
 const COARSE_CANDIDATES = 40;
-/** Most passes of the low-field / window iteration (it normally settles in 1–2). */
+/** Most passes of the low-field / window iteration (it normally settles in 1–2; cap is a project choice). */
 const MAX_WINDOW_PASSES = 5;
 
 /** Plain-language statement of the automatic window rule, for the UI and reports. */
@@ -241,6 +241,7 @@ export function selectAutoWindow(y: number[], x: number[], absJ: number[] | null
   {
     const sel: number[] = [];
     for (let k = 0; k < y.length; k++) if (y[k] >= LOW_FIELD_FLOOR) sel.push(k);
+    // ≥ 3 points: a slope with at least one residual degree of freedom (project choice).
     if (sel.length >= 3 && decadesOf(sel.map((k) => x[k])) > 0) {
       const pre = tafelLinearFit(
         sel.map((k) => x[k]),
@@ -321,6 +322,7 @@ export function selectAutoWindow(y: number[], x: number[], absJ: number[] | null
     }
     best = { positions: chosen, lowFieldLimit: limit, passed: true, reasons: [], eligible, testedPoints: chosenTested };
     alphaHat = thermalVoltage(temperatureK) / chosenSlope;
+    // Settled when the limit moves by less than 1e-12 V (far below any η resolution; project choice).
     if (Math.abs(lowFieldLimit(temperatureK, alphaHat) - limit) < 1e-12) break;
   }
   return best;

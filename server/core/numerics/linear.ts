@@ -79,6 +79,7 @@ function validate(X: number[][], y: number[], options: LinearFitOptions): { n: n
     }
   }
   const steps = options.refinementSteps;
+  // Upper bound 20: project choice (refinement settles in 1–3 steps when it converges at all).
   if (steps !== undefined && (!Number.isInteger(steps) || steps < 0 || steps > 20)) {
     throw new InputError('refinementSteps', 'must be an integer from 0 to 20', steps);
   }
@@ -190,6 +191,7 @@ export function linearLeastSquares(X: number[][], y: number[], options: LinearFi
     lastRelCorrection = size > 0 ? corr / size : corr;
     if (it > 0 && lastRelCorrection <= EPSILON) break;
   }
+  // Warning threshold √ε (half the float64 digits still moving): project choice.
   if (steps > 0 && lastRelCorrection > Math.sqrt(EPSILON)) {
     warnings.push(
       `Iterative refinement did not settle (last relative correction ${lastRelCorrection.toExponential(2)}); the problem is very ill-conditioned and the coefficients may have few correct digits.`,
@@ -270,6 +272,7 @@ export function linearLeastSquares(X: number[][], y: number[], options: LinearFi
     // The response is constant: an exact fit (RSS at rounding level) counts as R² = 1.
     let sumY2 = 0;
     for (let i = 0; i < n; i++) sumY2 += yw[i] * yw[i];
+    // "Rounding level" (4nε)²·Σy²: a few ulp per residual summed over n points (project choice).
     const roundingLevel = (4 * n * EPSILON) ** 2 * sumY2;
     rSquared = rss <= roundingLevel ? 1 : 0;
     warnings.push('R² is undefined because the response has no variation; reported as ' + rSquared + '.');

@@ -65,7 +65,7 @@ const EXPAND_RATIO = 0.75;
  */
 const STATIONARY_COSINE = 1e-4;
 
-/** Finite-difference step factors: ε^{1/3} central, ε^{1/2} forward (Nocedal & Wright §8.1). */
+/** Finite-difference step factors: ε^{1/3} central, ε^{1/2} forward (Nocedal & Wright §8.1; section number from memory). */
 const CENTRAL_STEP = Math.cbrt(EPSILON);
 /**
  * Safety factor on the finite-difference relative error (ε^{2/3} central, ε^{1/2} forward)
@@ -158,6 +158,8 @@ export function levenbergMarquardt(problem: NonlinearProblem, options: Nonlinear
   const n = start.length;
   const analytic = problem.jacobian;
   const perJacobian = analytic ? 0 : fdMode === 'central' ? 2 * n : n;
+  // Default budget: MINPACK lmder1's maxfev = 100·(n + 1) (Moré et al. 1980; from memory), times
+  // the residual calls one Jacobian costs here (project choice).
   const maxEvaluations = options.maxEvaluations ?? 100 * (n + 1) * (1 + perJacobian);
   if (!Number.isInteger(maxEvaluations) || maxEvaluations < 1) fail('options.maxEvaluations', 'must be a positive integer', maxEvaluations);
 
@@ -505,6 +507,8 @@ export function levenbergMarquardt(problem: NonlinearProblem, options: Nonlinear
       const prered = temp1 * temp1 + (temp2 * temp2) / 0.5;
       const dirder = -(temp1 * temp1 + temp2 * temp2);
       const ratio = prered !== 0 ? actred / prered : 0;
+      // Radius update as in MINPACK lmder (Moré 1978): the factors 0.1 and 0.5 below are
+      // MINPACK's own constants.
       if (ratio <= SHRINK_RATIO) {
         let t = actred >= 0 ? 0.5 : (0.5 * dirder) / (dirder + 0.5 * actred);
         if (0.1 * fnorm1 >= fnorm || t < 0.1 || !Number.isFinite(t)) t = 0.1;

@@ -33,7 +33,7 @@ import { minimizeBracketed } from './optimize1d.js';
 import { type CellPerformance, type CellPoint, cellPerformanceIssues, evaluateCell, requirePositive, throwIfIssues } from './performance.js';
 import { JOULES_PER_KWH, PRODUCT_SPECS, type ProductId, SECONDS_PER_HOUR } from './products.js';
 
-/** Hours in a 365-day year: the cap on operating hours (exact). */
+/** Hours in a 365-day year (365 × 24): the cap on operating hours (our convention; leap years ignored). */
 export const HOURS_PER_YEAR = 8760;
 /** kg per tonne (exact). */
 export const KG_PER_TONNE = 1000;
@@ -270,6 +270,7 @@ export function economicCurrentDensity(input: CostInput): EconomicCurrentDensity
   for (let k = 1; k < SCAN_POINTS; k++) if (values[k] < values[best]) best = k;
   const lo = grid[Math.max(0, best - 1)];
   const hi = grid[Math.min(SCAN_POINTS - 1, best + 1)];
+  // atol 1e-8 in ln j: j* to about 1e-8 relative (project choice).
   const min = minimizeBracketed(total, lo, hi, { rtol: 0, atol: 1e-8 });
   if (min.status !== 'converged') throw new ConvergenceError(`economic current density: ${min.message}`, min.iterations);
   let lnJ = min.x;
@@ -283,6 +284,7 @@ export function economicCurrentDensity(input: CostInput): EconomicCurrentDensity
     lnJ = lnMax;
     fx = values[SCAN_POINTS - 1];
   }
+  // An optimum within 1e-6 in ln j of a range end counts as at that end (project choice).
   const edgeTol = 1e-6;
   let status: EconomicCurrentDensityResult['status'] = 'converged';
   let message = 'minimum inside the range';
@@ -304,6 +306,7 @@ export function economicCurrentDensity(input: CostInput): EconomicCurrentDensity
   if (input.designCurrentDensity !== undefined) {
     const dCost = costAt(input, input.designCurrentDensity, crf);
     design = { cost: dCost, display: costDisplay(input, dCost) };
+    // Warn when the design point costs over 5 % more than the optimum (project choice).
     if (dCost.totalCost > cost.totalCost * 1.05) {
       warnings.push(`The design current density costs ${sig((dCost.totalCost / cost.totalCost - 1) * 100, 3)} % more per tonne than the economic one.`);
     }
@@ -398,6 +401,7 @@ function scaled(input: CostInput, parameter: SensitivityParameter, factor: numbe
  */
 export function costSensitivity(input: CostInput, options: { currentDensity?: number; fraction?: number } = {}): SensitivityResult {
   validate(input);
+  // Default ±20 % swing (project choice).
   const fraction = options.fraction ?? 0.2;
   if (!(fraction > 0 && fraction < 1)) throw new InputError('fraction', 'must be in (0, 1)');
   const j = options.currentDensity ?? economicCurrentDensity(input).currentDensity;

@@ -4,8 +4,9 @@
  * - Numbers enter through their shortest round-trip decimal form (JavaScript's own
  *   Number → string), so 2.675 is taken as the decimal 2.675 that the user typed, not as the
  *   binary neighbour 2.67499999999999982236431605997495353221893310546875.
- * - Sums, discounting and the capital recovery factor run in 40 significant digits, rounding
- *   half-even inside the arithmetic (no drift in long sums).
+ * - Sums, discounting and the capital recovery factor run in 40 significant digits (our
+ *   choice: far beyond any money figure), rounding half-even inside the arithmetic (no drift in
+ *   long sums).
  * - Display rounding is explicit: `roundMoney(x, places, mode)`, default half-up (commercial
  *   rounding, common practice for reported figures); half-even on request.
  */

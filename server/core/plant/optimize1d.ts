@@ -30,6 +30,8 @@ export function minimizeBracketed(
   hi: number,
   options: { rtol?: number; atol?: number; maxIterations?: number } = {},
 ): Minimum1D {
+  // Default tolerances and iteration cap: project choices. (Near a smooth minimum f is flat, so
+  // x is fixed only to about √ε relative whatever rtol asks — Brent 1973 ch. 5, from memory.)
   const rtol = options.rtol ?? 1e-10;
   const atol = options.atol ?? 1e-14;
   const maxIterations = options.maxIterations ?? 200;
@@ -120,8 +122,8 @@ export interface Root1D {
  * Root of g on [lo, hi] with g(lo)·g(hi) ≤ 0: regula falsi with the Illinois modification,
  * falling back to bisection whenever the bracket does not at least halve in two steps.
  * Stops when the bracket is below rtol·|x| + atol or g = 0 exactly.
- * Source: Dowell & Jarratt, BIT 11 (1971) 168 (Illinois method); bisection safeguard is
- * common practice.
+ * Source: Dowell & Jarratt, BIT 11 (1971) 168–174 (Illinois method); bisection safeguard is
+ * common practice (the "halve in two steps" rule is our choice).
  */
 export function findRootBracketed(
   g: (x: number) => number,
@@ -129,6 +131,7 @@ export function findRootBracketed(
   hi: number,
   options: { rtol?: number; atol?: number; maxIterations?: number } = {},
 ): Root1D {
+  // Default tolerances and iteration cap: project choices.
   const rtol = options.rtol ?? 1e-13;
   const atol = options.atol ?? 0;
   const maxIterations = options.maxIterations ?? 200;

@@ -100,6 +100,8 @@ export const CHEMISTRY_SPECS: Readonly<Record<PlantChemistry, ChemistrySpec>> = 
       value: 2.3111,
       unit: 'V',
       source: 'ΔH°/(2F) from NBS-82 tables, 298.15 K (check-values §2b, derived)',
+      // The NaCl(ao)/NaOH(ao) ΔfH° inputs equal the ion sums, whose ion values are source seen
+      // (via secondary) in check-values §2a; the NaOH(ao) entry itself is marked from memory there.
     },
   },
   water: {

@@ -259,6 +259,8 @@ function operatingCurrentDensity(input: SizingInput, cells: number, chargeRate: 
   const jHigh = input.designCurrentDensity;
   if (g(jHigh) <= 0) return design; // exact fit at design (cells not rounded up)
   let jLow = jHigh;
+  // Bracket by 10 % steps down from the design point (at most 200 steps, to 0.9^200 ≈ 7e-10 of
+  // j_design); root to 1e-12 relative. Project choices.
   for (let k = 0; k < 200 && g(jLow) > 0; k++) jLow *= 0.9;
   const root = findRootBracketed(g, jLow, jLow / 0.9 > jHigh ? jHigh : jLow / 0.9, { rtol: 1e-12 });
   if (root.status !== 'converged') {
@@ -392,6 +394,8 @@ export function sizePlant(input: SizingInput): SizingResult {
       `The ${cells} cells do not divide evenly among ${electrolyserCount} electrolysers: ${extra} have ${base + 1} cells and ${electrolyserCount - extra} have ${base}; voltages differ accordingly.`,
     );
   }
+  // Below 90 % CE the data are questioned (project choice; industrial chlor-alkali runs at
+  // 95–97 %, check-values §9a, from memory).
   if (op.currentEfficiency < 0.9) {
     warnings.push(`Current efficiency ${percent(op.currentEfficiency, 3)} at the operating point is low for an industrial cell; check the data.`);
   }

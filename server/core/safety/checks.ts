@@ -80,7 +80,8 @@ const PRESSURISED_ABOVE = 2e5;
  * Screens as fractions of the lower limit. Water electrolysers commonly trip near 2 vol % H₂ in O₂
  * (half the 4 % limit) and alarm near 1 vol % (a quarter): common practice, check-values §10
  * (e.g. Haug et al. 2017; Schalenbach et al. 2016 — numbers from memory). The same fractions are
- * applied to H₂ in Cl₂.
+ * applied to H₂ in Cl₂ (our choice: no published screen for H₂ in Cl₂ is recorded in
+ * check-values §10, which only says plants keep it "well below the LEL").
  */
 export const ALARM_FRACTION_OF_LOWER_LIMIT = 0.5;
 export const CAUTION_FRACTION_OF_LOWER_LIMIT = 0.25;

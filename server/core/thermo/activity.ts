@@ -14,7 +14,8 @@
  * Parameters at 25 °C: Pitzer & Mayorga, J. Phys. Chem. 77 (1973) 2300, Table I (source seen
  * via secondary transcription). Temperature: first-order expansion
  *   β(T) = β(298.15) + (∂β/∂T)·(T − 298.15)
- * with the 25 °C derivatives of Silvester & Pitzer (1977/1979) as tabulated in Pitzer (1991),
+ * with the 25 °C derivatives of Silvester & Pitzer (1977/1979; years from memory, check-values
+ * §4b names 1979) as tabulated in Pitzer (1991),
  * ch. 3, Table 12 (source seen via secondary) — available for NaCl and NaOH only. KOH has
  * no temperature derivatives here: its 25 °C parameters are used unchanged and every
  * result away from 25 °C carries a warning. A^φ(T) from Møller (1988) (water.ts).

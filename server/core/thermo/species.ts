@@ -9,7 +9,9 @@
  *   hypothetical ideal solution). Aqueous ions follow the convention that H⁺(aq) has
  *   ΔfH° = ΔfG° = S° = Cp° = 0.
  * - "ao" species (NaCl, NaOH, KOH in water) are the fully dissociated standard state: their
- *   values are the sums of the ions' values (NBS-82 lists them so).
+ *   values are the sums of the ions' values to table rounding (NBS-82 lists them so; the
+ *   tabulated S° of NaOH(ao) 48.1 and KOH(ao) 91.6 sit 0.15 J/(mol·K) below the ion sums
+ *   48.25 and 91.75, check-values §2a, all from memory there).
  *
  * Temperature functions (Kirchhoff and entropy integration from 298.15 K):
  *   H(T) = ΔfH°(298.15) + ∫ Cp dT,   S(T) = S°(298.15) + ∫ Cp/T dT,   G(T) = H(T) − T·S(T).

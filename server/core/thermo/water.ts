@@ -91,7 +91,8 @@ export const APHI_RANGE: readonly [number, number] = [273.15, 573.15];
 /**
  * Debye–Hückel slope for the osmotic coefficient A^φ(T) [kg^½ mol^−½]; T [K].
  * Source: Møller (1988) eq. (13) fit (see MOLLER_APHI). Check: 0.39148 at 25 °C against
- * 0.3915 tabulated by Pitzer (1991, ch. 3, Table 1).
+ * the usual 0.3915 (check-values §4b: value seen as a default in public code; its attribution
+ * to Pitzer 1991 / Archer & Wang 1990 is from memory).
  * Validity: 273.15–573.15 K; throws InputError outside.
  */
 export function debyeHuckelOsmoticSlope(temperature: number): number {

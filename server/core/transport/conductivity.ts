@@ -6,7 +6,8 @@
  * - KOH: Gilliam, Graydon, Kirk & Thorpe, Int. J. Hydrogen Energy 32 (2007) 359–364
  *   (molarity basis, 0–12 M, 0–100 °C). Source seen via secondary (check-values §5a).
  * - NaCl: Sen & Goode, Geophysics 57 (1992) 89–96 (molality basis). Formula source seen in
- *   public code (several copies) quoting Sen & Goode / Watanabe et al. (2021).
+ *   public code (several copies) quoting Sen & Goode / Watanabe et al. (2021; journal details
+ *   not recorded here).
  * - NaOH: NO published correlation could be confirmed. A from-memory estimate is provided,
  *   flagged low confidence in every result (see naohConductivity).
  *
@@ -55,7 +56,7 @@ function positiveOrThrow(value: number, name: string, detail: string): number {
  * secondary (two independent code copies; check-values §5a).
  */
 export const GILLIAM_KOH = { A: -2.041, B: -0.0028, C: 0.005332, D: 207.2, E: 0.001043, F: -3.0e-7 } as const;
-/** Gilliam validity: 0–12 mol/L, 0–100 °C. */
+/** Gilliam validity: 0–12 mol/L, 0–100 °C (abstract, source seen; check-values §5a). */
 export const GILLIAM_RANGE = { molarityMax: 12 * MOL_PER_M3_PER_MOL_PER_L, temperature: [273.15, 373.15] as const };
 const GILLIAM_SOURCE = 'Gilliam, Graydon, Kirk & Thorpe, Int. J. Hydrogen Energy 32 (2007) 359–364';
 
@@ -167,6 +168,7 @@ const NAOH_T_REF = 291.15;
  * (from memory, low confidence) in check-values §5c. Not a published value.
  */
 const NAOH_THETA = { dilute: 1780, at32wt: 2400, w32: 0.32 } as const;
+/** Range used for warnings: the table's extent (to 50 wt %) and 0–100 °C (project choice). */
 const NAOH_RANGE = { massFractionMax: 0.5, temperature: [273.15, 373.15] as const };
 export const NAOH_CONDUCTIVITY_CAVEAT =
   'NaOH conductivity: no published correlation could be confirmed; this estimate uses from-memory handbook values at 18 °C and an assumed temperature factor (low confidence; errors of ±20 % or more are possible). Use measured conductivity data for design.';

@@ -59,13 +59,19 @@ export function asrFromConductivity(thickness: number, conductivity: number): nu
 // Springer, Zawodzinski & Gottesfeld, J. Electrochem. Soc. 138 (1991) 2334–2342
 // ---------------------------------------------------------------------------------------
 
-/** Springer σ(λ, 303 K) = a·λ − b in S/cm: a = 0.005139, b = 0.00326 (source seen via secondary). */
+/**
+ * Springer σ(λ, 303 K) = a·λ − b in S/cm: a = 0.005139, b = 0.00326; temperature factor
+ * exp[1268 K·(1/303 K − 1/T)] (all source seen via secondary, check-values §6).
+ */
 export const SPRINGER = { a: 0.005139, b: 0.00326, activationTemperature: 1268, referenceTemperature: 303 } as const;
-/** Water-uptake polynomial at 30 °C, λ = c0 + c1 a + c2 a² + c3 a³ (0 < a ≤ 1; from memory). */
+/**
+ * Water-uptake polynomial at 30 °C, λ = c0 + c1 a + c2 a² + c3 a³ (0 < a ≤ 1), and
+ * λ = 14 + 1.4 (a − 1) for 1 < a ≤ 3 (all from memory, check-values §6).
+ */
 export const SPRINGER_UPTAKE = { c0: 0.043, c1: 17.81, c2: -39.85, c3: 36.0, lambdaAtSaturation: 14, slopeAboveSaturation: 1.4, activityMax: 3 } as const;
-/** Below λ = 1 Springer's linear conductivity law is not applicable (it crosses zero near λ ≈ 0.63). */
+/** Below λ = 1 Springer's linear conductivity law is not applicable (it crosses zero near λ = b/a ≈ 0.63; the cut at 1 is a project choice). */
 const SPRINGER_LAMBDA_MIN = 1;
-/** Temperature window [K] outside which a warning is given (0–100 °C; the model was built for ≈ 30–80 °C). */
+/** Temperature window [K] outside which a warning is given (0–100 °C, project choice; the model was built for ≈ 30–80 °C, from memory). */
 const SPRINGER_T_WINDOW = [273.15, 373.15] as const;
 const S_PER_CM_IN_S_PER_M = 100;
 

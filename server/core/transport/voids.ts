@@ -11,8 +11,9 @@
  *   Gap:       R = d/σ_eff [Ω·m²]
  *
  * ε must lie in [0, 1): InputError otherwise. Validity: Maxwell is a dilute-limit result (ε
- * up to ≈ 0.1–0.2); Bruggeman is used to higher fractions (common practice). Near-electrode
- * gas fractions rarely exceed ≈ 0.65 (van der Does et al. 2025, via check-values §7).
+ * up to ≈ 0.1–0.2, from memory); Bruggeman is used to higher fractions (common practice).
+ * Near-electrode gas fractions rarely exceed ≈ 0.65 (van der Does, Valle & Haverkort, Int. J.
+ * Hydrogen Energy 102 (2025) 295–303, via check-values §7: source seen on the author's blog).
  */
 import { InputError } from '../errors.js';
 import { requireFinite, requireNonNegative, requirePositive } from '../thermo/guards.js';
