@@ -7,6 +7,7 @@ import { studyRouter } from './web/study.js';
 import { kineticsRouter } from './web/kinetics.js';
 import { cellRouter } from './web/cell.js';
 import { plantRouter } from './web/plant.js';
+import { reportRouter } from './web/report.js';
 
 export interface AppOptions {
   /** Folder for saved studies (default: STUDY_DIR env or ./data/studies). */
@@ -63,6 +64,7 @@ export function createApp(options: AppOptions = {}): Express {
   app.use(kineticsRouter(store));
   app.use(cellRouter(store));
   app.use(plantRouter(store));
+  app.use(reportRouter(store));
 
   app.use(notFound);
   app.use(errorHandler);

@@ -29,6 +29,7 @@ const PAGES: Array<[string, string]> = [
   ['/coatings', 'Coatings'],
   ['/costs', 'Costs'],
   ['/safety', 'Safety'],
+  ['/report', 'Report'],
 ];
 
 /** The study a request works on: `?study=` (or a form field `study`), else the default example. */
