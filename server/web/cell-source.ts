@@ -125,28 +125,3 @@ export function toCellPerformance(source: CellSource, currentEfficiency: number 
   };
 }
 
-/** Relative step of the central difference for dU/dj of a model cell (1e-4, our choice: well above rounding, well below curvature). */
-const SLOPE_RELATIVE_STEP = 1e-4;
-
-/**
- * Small-signal area resistance of the cell at current density j [A/m²]: dU/dj [Ω·m²].
- * Linear source: the slope K exactly. Model: central difference
- * (U(j(1+h)) − U(j(1−h)))/(2jh) with h = 1e-4 (truncation error O(h²·U‴) is negligible for
- * the smooth cell curve; rounding error ~ ε·U/(j·h) ≈ 1e-12·U/j). Divide by the cell area for
- * the cell resistance in Ω used by the shunt-current network. Source: standard numerical
- * differentiation.
- */
-export function cellAreaResistanceAt(cell: CellPerformance, currentDensity: number, path = 'cell'): number {
-  if (!(Number.isFinite(currentDensity) && currentDensity > 0)) {
-    throw new InputError('currentDensity', 'must be a finite current density > 0 A/m²', currentDensity);
-  }
-  if (cell.kind === 'linear') return cell.slope;
-  const h = SLOPE_RELATIVE_STEP * currentDensity;
-  const up = cell.evaluate(currentDensity + h).cellVoltage;
-  const down = cell.evaluate(currentDensity - h).cellVoltage;
-  const slope = (up - down) / (2 * h);
-  if (!(Number.isFinite(slope) && slope > 0)) {
-    throw new PhysicsError(path, `the cell model gives no positive slope dU/dj at ${currentDensity} A/m²`);
-  }
-  return slope;
-}

@@ -12,6 +12,7 @@ import { UNIT_TABLES, fromSI, toSI } from '../core/units.js';
 import { FARADAY } from '../core/constants.js';
 import {
   PRODUCT_SPECS,
+  cellAreaResistanceAt,
   electrolytePathResistance,
   evaluateCell,
   sizePlant,
@@ -27,7 +28,7 @@ import {
 } from '../core/plant/index.js';
 import type { Study } from '../scenario/schema.js';
 import { MAX_SHUNT_CELLS, plantSectionSchema, type PlantProduct, type PlantSection, type ShuntCircuitInput } from '../scenario/plant-sections.js';
-import { cellAreaResistanceAt, cellSourceSchema, plantChemistryOf, toCellPerformance, type CellSource } from './cell-source.js';
+import { cellSourceSchema, plantChemistryOf, toCellPerformance, type CellSource } from './cell-source.js';
 import { describeError, zodIssues } from './errors.js';
 import { fixed, fmt } from './format.js';
 
