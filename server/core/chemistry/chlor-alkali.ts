@@ -33,7 +33,7 @@ import { describeTemperature } from '../thermo/guards.js';
 import { pitzerActivity, type ActivityResult } from '../thermo/activity.js';
 import { reversibleVoltage, saturatedGasPartialPressure, lnRelativePressure } from '../thermo/reversible.js';
 import type { Stoichiometry } from '../thermo/reaction.js';
-import { HYDROGEN, idealGasWarning, validateConditions } from './common.js';
+import { HYDROGEN, idealGasWarning, reversibleDetails, validateConditions } from './common.js';
 import type { Chemistry, OperatingConditions, Product, ReversibleResult } from './types.js';
 
 /** 0–100 °C: the trusted range of the constant-Cp aqueous species (thermo/species.ts; our approximation window). */
@@ -116,14 +116,7 @@ export const CHLOR_ALKALI: Chemistry = {
       thermoneutralVoltage: rev.thermoneutralVoltage,
       warnings,
       details: {
-        E0: rev.standardPotential,
-        nernstTerm: rev.nernstTerm,
-        lnQ: rev.lnQ,
-        dE0dT: rev.standardPotentialSlope,
-        deltaG0: rev.thermo.deltaG,
-        deltaH0: rev.thermo.deltaH,
-        deltaS0: rev.thermo.deltaS,
-        tableEntropyMismatch: rev.thermo.tableEntropyChange - rev.thermo.standardDeltaS,
+        ...reversibleDetails(rev),
         gasNernstTerm: rtOverNF * (lnA['Cl2(g)'] + lnA['H2(g)']),
         activityNernstTerm: rtOverNF * lnSalt,
         activityNernstSpread: spread,

@@ -3,7 +3,7 @@
  * a chemistry's declared needs, and the water-splitting reversible voltage used by both
  * water chemistries.
  */
-import { GAS_CONSTANT, FARADAY, MOLAR_MASS, P_STANDARD } from '../constants.js';
+import { FARADAY, MOLAR_MASS, P_STANDARD, thermalVoltage } from '../constants.js';
 import { InputError } from '../errors.js';
 import { requireFinite, describeTemperature } from '../thermo/guards.js';
 import { reversibleVoltage, saturatedGasPartialPressure, thermoneutralVoltage, lnRelativePressure } from '../thermo/reversible.js';
@@ -60,6 +60,24 @@ export function idealGasWarning(pressure: number): string[] {
 }
 
 /**
+ * The thermodynamic figures every chemistry reports in `details` (V, J/mol, J/(mol·K)):
+ * E°, the Nernst term, ln Q, dE°/dT, ΔG°, ΔH°, ΔS° and the mismatch between the tabulated
+ * and the ΔH/ΔG-derived entropy change (see thermo/reaction.ts).
+ */
+export function reversibleDetails(rev: ReturnType<typeof reversibleVoltage>): Record<string, number> {
+  return {
+    E0: rev.standardPotential,
+    nernstTerm: rev.nernstTerm,
+    lnQ: rev.lnQ,
+    dE0dT: rev.standardPotentialSlope,
+    deltaG0: rev.thermo.deltaG,
+    deltaH0: rev.thermo.deltaH,
+    deltaS0: rev.thermo.deltaS,
+    tableEntropyMismatch: rev.thermo.tableEntropyChange - rev.thermo.standardDeltaS,
+  };
+}
+
+/**
  * Reversible and thermoneutral voltages of water electrolysis at (T, p) with water
  * activity a_w of the electrolyte:
  *   E_rev = E°(T) + (RT/2F)·ln[(p_H2/p°)(p_O2/p°)^½ / a_w]
@@ -90,15 +108,8 @@ export function waterSplittingReversible(
     lhvThermoneutralVoltage: lhv,
     warnings: [...rev.warnings, ...activityWarnings, ...idealGasWarning(c.pressure)],
     details: {
-      E0: rev.standardPotential,
-      nernstTerm: rev.nernstTerm,
-      lnQ: rev.lnQ,
-      dE0dT: rev.standardPotentialSlope,
-      deltaG0: rev.thermo.deltaG,
-      deltaH0: rev.thermo.deltaH,
-      deltaS0: rev.thermo.deltaS,
-      tableEntropyMismatch: rev.thermo.tableEntropyChange - rev.thermo.standardDeltaS,
-      thermalVoltage: (GAS_CONSTANT.value * T) / FARADAY.value,
+      ...reversibleDetails(rev),
+      thermalVoltage: thermalVoltage(T),
       nF,
       partialPressureH2: gas.partialPressure,
       partialPressureO2: gas.partialPressure,

@@ -198,6 +198,27 @@ const softplus = (p: number) => (p > 35 ? p : Math.log1p(Math.exp(p)));
 const sigmoid = (p: number) => 1 / (1 + Math.exp(-p));
 
 /**
+ * One limiting current from the parameter vector: fitted as j_lim = j_max·(1 + e^φ) (φ clamped
+ * to [PHI_MIN, PHI_MAX], so it always lies above the largest measured |j|; see the file header),
+ * fixed at the given value, or none (undefined). `excess` = j_lim − j_max (NaN unless fitted).
+ */
+function unpackLimit(
+  theta: number[],
+  index: number,
+  lnJMax: number,
+  jMax: number,
+  given: number | 'fit' | undefined,
+): { ln: number; dep: Dep; excess: number; value: number } | undefined {
+  if (index >= 0) {
+    const phi = Math.min(PHI_MAX, Math.max(theta[index], PHI_MIN));
+    const excess = jMax * Math.exp(phi);
+    return { ln: lnJMax + softplus(phi), dep: [{ index, d: phi === theta[index] ? sigmoid(phi) : 0 }], excess, value: jMax + excess };
+  }
+  if (typeof given === 'number') return { ln: Math.log(given), dep: [], excess: NaN, value: given };
+  return undefined;
+}
+
+/**
  * Fit the Butler–Volmer law (with optional limiting currents and R_u) to polarization
  * points (j [A/m²], η [V]). See the file header for model, parametrisation and statistics.
  * Throws InputError for invalid options or too few points, PhysicsError when data exceed a
@@ -391,26 +412,10 @@ function fitButlerVolmerWith(points: PolarizationPoint[], options: ButlerVolmerF
         u.alphaA = fixedAa ?? nEl - (fixedAc as number);
         u.alphaC = fixedAc ?? nEl - (fixedAa as number);
       }
-      if (iLa >= 0) {
-        const phi = Math.min(PHI_MAX, Math.max(theta[iLa], PHI_MIN));
-        u.lnLimA = lnJMaxA + softplus(phi);
-        u.limADep = [{ index: iLa, d: phi === theta[iLa] ? sigmoid(phi) : 0 }];
-        u.limAExcess = jMaxA * Math.exp(phi);
-        u.limA = jMaxA + u.limAExcess;
-      } else if (typeof limA === 'number') {
-        u.lnLimA = Math.log(limA);
-        u.limA = limA;
-      }
-      if (iLc >= 0) {
-        const phi = Math.min(PHI_MAX, Math.max(theta[iLc], PHI_MIN));
-        u.lnLimC = lnJMaxC + softplus(phi);
-        u.limCDep = [{ index: iLc, d: phi === theta[iLc] ? sigmoid(phi) : 0 }];
-        u.limCExcess = jMaxC * Math.exp(phi);
-        u.limC = jMaxC + u.limCExcess;
-      } else if (typeof limC === 'number') {
-        u.lnLimC = Math.log(limC);
-        u.limC = limC;
-      }
+      const la = unpackLimit(theta, iLa, lnJMaxA, jMaxA, limA);
+      if (la) ({ ln: u.lnLimA, dep: u.limADep, excess: u.limAExcess, value: u.limA } = la);
+      const lc = unpackLimit(theta, iLc, lnJMaxC, jMaxC, limC);
+      if (lc) ({ ln: u.lnLimC, dep: u.limCDep, excess: u.limCExcess, value: u.limC } = lc);
       if (iRu >= 0) {
         u.ru = theta[iRu];
         u.ruDep = [{ index: iRu, d: 1 }];

@@ -62,41 +62,37 @@ export function twoProduct(a: number, b: number, out: DoubleDouble): DoubleDoubl
   return out;
 }
 
+/** Scratch for the exact product in ddAddProduct (single-threaded JS: no sharing hazard). */
+const PRODUCT: DoubleDouble = { hi: 0, lo: 0 };
+
+/**
+ * acc ← acc + (x + xlo), where x + xlo is a double-double with |xlo| ≤ ulp(x)/2: TwoSum of
+ * the high parts, low parts accumulated, then renormalised with FastTwoSum (|s| ≥ |lo| holds
+ * under the usual double-double assumptions; Hida, Li & Bailey 2001).
+ */
+function ddAddPair(acc: DoubleDouble, x: number, xlo: number): void {
+  const s = acc.hi + x;
+  const bb = s - acc.hi;
+  const se = acc.hi - (s - bb) + (x - bb);
+  const lo = acc.lo + xlo + se;
+  const hi = s + lo;
+  acc.lo = lo - (hi - s);
+  acc.hi = hi;
+}
+
 /**
  * acc ← acc + a·b in double-double arithmetic (compensated multiply-add).
  * The product is formed exactly with TwoProduct, then added with TwoSum; the low parts
  * are accumulated and renormalised (Ogita–Rump–Oishi "Dot2" accuracy).
  */
 export function ddAddProduct(acc: DoubleDouble, a: number, b: number): void {
-  // Exact product p + pe.
-  const p = a * b;
-  let t = SPLITTER * a;
-  const ahi = t - (t - a);
-  const alo = a - ahi;
-  t = SPLITTER * b;
-  const bhi = t - (t - b);
-  const blo = b - bhi;
-  const pe = alo * blo - (p - ahi * bhi - alo * bhi - ahi * blo);
-  // Exact sum hi + p = s + se.
-  const s = acc.hi + p;
-  const bb = s - acc.hi;
-  const se = acc.hi - (s - bb) + (p - bb);
-  const lo = acc.lo + pe + se;
-  // Renormalise (FastTwoSum; |s| ≥ |lo| holds up to the usual double-double assumptions).
-  const hi = s + lo;
-  acc.lo = lo - (hi - s);
-  acc.hi = hi;
+  twoProduct(a, b, PRODUCT);
+  ddAddPair(acc, PRODUCT.hi, PRODUCT.lo);
 }
 
 /** acc ← acc + a in double-double arithmetic. */
 export function ddAdd(acc: DoubleDouble, a: number): void {
-  const s = acc.hi + a;
-  const bb = s - acc.hi;
-  const se = acc.hi - (s - bb) + (a - bb);
-  const lo = acc.lo + se;
-  const hi = s + lo;
-  acc.lo = lo - (hi - s);
-  acc.hi = hi;
+  ddAddPair(acc, a, 0);
 }
 
 /** The double-double value rounded to the nearest float64. */
