@@ -49,13 +49,16 @@ describe('linearLeastSquares values', () => {
 
   it('matches the textbook closed form for a straight line', () => {
     // Hand calculation: x̄ = 2.5, ȳ = 36.1/6, Sxx = 17.5, Sxy = Σ(x − x̄)(y − ȳ) = 34.85,
-    // slope = 34.8/17.5, intercept = ȳ − slope·x̄ (ordinary least squares, any statistics text).
+    // slope = 34.85/17.5, intercept = ȳ − slope·x̄ (ordinary least squares, any statistics text).
     const fit = linearLeastSquares(line, ys);
     const slope = 34.85 / 17.5;
     expectClose(fit.coefficients[1], slope, { rtol: 1e-13 }, 'slope');
     expectClose(fit.coefficients[0], 36.1 / 6 - slope * 2.5, { rtol: 1e-13 }, 'intercept');
-    // SE(slope) = s/√Sxx (same texts).
-    expectClose(fit.standardErrors[1], fit.residualStandardDeviation / Math.sqrt(17.5), { rtol: 1e-12 }, 'SE slope');
+    // RSS = Syy − Sxy²/Sxx = 69.508333… − 1214.5225/17.5 (hand); s = √(RSS/4), SE(slope) = s/√Sxx.
+    // Values from an independent computation: numpy 2.4 polyfit(x, y, 1) and the residuals.
+    expectClose(fit.rss, 0.10704761904761896, { rtol: 1e-11 }, 'RSS');
+    expectClose(fit.residualStandardDeviation, 0.1635906622087726, { rtol: 1e-12 }, 'residual SD');
+    expectClose(fit.standardErrors[1], 0.039105647938376766, { rtol: 1e-12 }, 'SE slope');
     expect(fit.degreesOfFreedom).toBe(4);
     expect(fit.rank).toBe(2);
   });

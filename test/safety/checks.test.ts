@@ -17,9 +17,10 @@ import {
 } from '../../server/core/safety/index.js';
 import { InputError } from '../../server/core/errors.js';
 
-/** Faraday constant, CODATA 2018 (exact since 2019): 96 485.332 12… C/mol, quoted to 10 digits. */
-const F = 96485.33212;
-/** Relative rounding of F as quoted (3.4e-11) with margin. */
+/**
+ * Reference values below use F = 96 485.332 12 C/mol (CODATA 2018, exact since 2019, quoted
+ * to 10 digits); its relative rounding (3.4e-11) with margin sets the tolerance.
+ */
 const F_RTOL = 1e-10;
 
 describe('water saturation temperature (IAPWS-IF97, region 4)', () => {
@@ -91,8 +92,9 @@ describe('anode-gas hydrogen from crossover', () => {
     expectClose(anodeGasHydrogenFraction(1e-5, 1e-3), 1e-5 / 1.01e-3, { rtol: 1e-15 });
   });
 
-  it('O₂ production at 4 kA/m² = 4000/(4F) = 0.010 364 2 mol/(m²·s) (Faraday)', () => {
-    expectClose(gasProductionRate(4000, 4), 4000 / (4 * F), { rtol: F_RTOL });
+  it('O₂ production at 4 kA/m² = 4000/(4F) = 0.010 364 3 mol/(m²·s) (Faraday)', () => {
+    // Independent computation: Python 3, 4000/(4 × 96485.33212) (CODATA 2018 F).
+    expectClose(gasProductionRate(4000, 4), 0.01036426965661773, { rtol: F_RTOL });
   });
 
   it('Fick permeation P·p/d', () => {
@@ -104,7 +106,8 @@ describe('anode-gas hydrogen from crossover', () => {
     const r = anodeGasPurity({ chemistry: 'water', crossoverFlux: flux, operatingCurrentDensity: 5000, minimumCurrentDensity: 500 });
     expect(r.minimumLoad.hydrogenFraction).toBeGreaterThan(r.operating.hydrogenFraction);
     // x ≈ f·4F/j for x ≪ 1: 2e-6 × 4 × 96485 / 500 = 0.154 % at minimum load.
-    expectClose(r.minimumLoad.hydrogenFraction, flux / (flux + 500 / (4 * F)), { rtol: F_RTOL });
+    // Exact x = f/(f + j/4F) = 0.001 541 385 776 (independent computation: Python 3, CODATA 2018 F).
+    expectClose(r.minimumLoad.hydrogenFraction, 0.001541385776023605, { rtol: F_RTOL });
     const jTrip = r.lowestCurrentDensityBelowTrip;
     expectClose(anodeGasHydrogenFraction(flux, gasProductionRate(jTrip, 4)), 0.02, { rtol: 1e-12 }, 'round trip');
     expect(r.checks).toHaveLength(2);
@@ -112,7 +115,8 @@ describe('anode-gas hydrogen from crossover', () => {
 
   it('chlor-alkali uses Cl₂ (z = 2) and the chlorine limit', () => {
     const r = anodeGasPurity({ chemistry: 'chlor-alkali', crossoverFlux: 1e-4, operatingCurrentDensity: 6000, minimumCurrentDensity: 1500, temperature: 358.15 });
-    expectClose(r.operating.hydrogenFraction, 1e-4 / (1e-4 + 6000 / (2 * F)), { rtol: F_RTOL });
+    // x = f/(f + j/2F) = 1e-4/(1e-4 + 6000/(2 × 96485.33212)) (independent computation: Python 3).
+    expectClose(r.operating.hydrogenFraction, 0.0032058670989408705, { rtol: F_RTOL });
     expect(r.operating.check.id).toMatch(/^hydrogen-in-chlorine/);
     expect(r.minimumLoad.check.level).toBe('caution'); // ≈ 1.27 vol %: between 0.75 and 1.5 %
   });
