@@ -306,11 +306,3 @@ function checkTafelRange(k: PreparedKinetics, j: number, role: ElectrodeRole, fl
   if (j <= k.exchangeCurrentDensity) flags.tafelBelowExchange.push(role);
   else if (j < TAFEL_MIN_RATIO_TO_J0 * k.exchangeCurrentDensity) flags.tafelNearExchange.push(role);
 }
-
-/**
- * Convenience: the voltage breakdown of a definition at one current density j [A/m²]
- * (prepares the cell each call; use prepareCell + voltageBalance in loops).
- */
-export function cellVoltageAt(def: CellDefinition, j: number): VoltageBreakdown {
-  return voltageBalance(prepareCell(def), j).breakdown;
-}

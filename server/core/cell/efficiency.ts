@@ -25,23 +25,30 @@
 import { FARADAY } from '../constants.js';
 import { ConvergenceError, PhysicsError } from '../errors.js';
 import { anodicCurrent, anodicOverpotentialFor, type PreparedKinetics } from './electrode.js';
+import {
+  ALARM_FRACTION_OF_LOWER_LIMIT,
+  CAUTION_FRACTION_OF_LOWER_LIMIT,
+  HYDROGEN_IN_OXYGEN_LOWER_LIMIT,
+} from '../safety/checks.js';
 import type { ChemistryId, CurrentEfficiencyModel, CurrentEfficiencyResult, ProductId } from './types.js';
 
+/** Percent per mole fraction (vol % for ideal gases). */
+const PERCENT = 100;
 /**
- * Lower flammability limit of hydrogen in oxygen, 4.0 vol % H2 (1 atm, room temperature).
- * Source: Zabetakis, US Bureau of Mines Bulletin 627 (1965); Euro Chlor GEST 91/168 ch. 9
- * (check-values.md §10, source seen via secondaries).
+ * Lower flammability limit of hydrogen in oxygen, 4.0 vol % H2 (1 atm, room temperature):
+ * the safety module's figure (Zabetakis 1965; Euro Chlor GEST 91/168, check-values.md §10).
  */
-export const HYDROGEN_LFL_IN_OXYGEN_PERCENT = 4.0;
+export const HYDROGEN_LFL_IN_OXYGEN_PERCENT = PERCENT * HYDROGEN_IN_OXYGEN_LOWER_LIMIT.value;
 /**
  * Fraction of the LFL at which water electrolysers typically trip (≈ 2 vol % H2 in O2, half
- * the LFL). Common practice (check-values.md §10; numbers from memory there).
+ * the LFL): the safety module's trip screen (common practice, check-values.md §10).
  */
-export const TRIP_FRACTION_OF_LFL = 0.5;
+export const TRIP_FRACTION_OF_LFL = ALARM_FRACTION_OF_LOWER_LIMIT;
 /**
- * Typical alarm level of H2 in O2, ≈ 1 vol % (common practice; from memory, check-values.md §10).
+ * Typical alarm level of H2 in O2, ≈ 1 vol % (a quarter of the LFL): the safety module's
+ * caution screen (common practice; from memory, check-values.md §10).
  */
-export const HYDROGEN_IN_OXYGEN_ALARM_PERCENT = 1.0;
+export const HYDROGEN_IN_OXYGEN_ALARM_PERCENT = PERCENT * CAUTION_FRACTION_OF_LOWER_LIMIT * HYDROGEN_IN_OXYGEN_LOWER_LIMIT.value;
 
 /** The caution every safety figure carries (domain.md §9). */
 export const SAFETY_CAUTION =

@@ -89,12 +89,6 @@ export function prepareKinetics(
   };
 }
 
-/** Transfer coefficient of the working branch: α_a at the anode, α_c at the cathode. */
-export function workingTransferCoefficient(k: PreparedKinetics, role: ElectrodeRole): number {
-  if (k.model === 'tafel') return k.transferCoefficient;
-  return role === 'anode' ? k.anodicTransferCoefficient : k.cathodicTransferCoefficient;
-}
-
 /** Result of an activation overpotential evaluation. */
 export interface ActivationResult {
   /** |η| [V], ≥ 0. */

@@ -3,7 +3,7 @@
  * uncertainty). Web routes and plant calculations import from here.
  */
 export { cellDefinitionSchema, parseCellDefinition, MAX_SWEEP_POINTS } from './schema.js';
-export { prepareCell, voltageBalance, cellVoltageAt } from './balance.js';
+export { prepareCell, voltageBalance } from './balance.js';
 export type { PreparedCell, PreparedElectrode, BalancePoint, BalanceFlags } from './balance.js';
 export { sweepCell, sweepPrepared, evaluatePoint, kFactorLine, cellModelEvaluator, K_FACTOR_DEFAULT_LOWER_FRACTION, K_FACTOR_MIN_POINTS } from './sweep.js';
 export {

@@ -10,18 +10,10 @@
  * overpotential as a positive magnitude (the cathode's η < 0 is shown as |η_c|).
  */
 
-export type ChemistryId = 'chlor-alkali' | 'alkaline-water' | 'pem-water';
-export type ProductId = 'Cl2' | 'NaOH' | 'H2' | 'O2';
+/** Chemistry and product names and the electrolyte molalities (mol/kg) are the chemistry module's. */
+import type { ChemistryId, Composition, ProductId } from '../chemistry/types.js';
 
-/** Electrolyte molalities, mol/kg of water. */
-export interface Composition {
-  /** NaCl in the (depleted) anolyte brine, chlor-alkali. */
-  brineNaCl?: number;
-  /** NaOH in the catholyte (product caustic), chlor-alkali. */
-  causticNaOH?: number;
-  /** KOH in the electrolyte, alkaline water electrolysis. */
-  koh?: number;
-}
+export type { ChemistryId, Composition, ProductId };
 
 /**
  * Standard errors of a kinetic fit and the correlation between its two parameters, used by

@@ -11,8 +11,9 @@
  *
  * Sign convention: η = E − E_eq − j·R_u (domain.md §2), E and E_eq on one scale.
  */
-import { GAS_CONSTANT, FARADAY, T_STANDARD } from '../constants.js';
+import { T_STANDARD, thermalVoltage } from '../constants.js';
 import { InputError } from '../errors.js';
+import { kelvinToCelsius } from '../units.js';
 
 export type ReferenceElectrodeId =
   | 'she'
@@ -170,15 +171,14 @@ export function referencePotentialVsShe(ref: ReferenceSpec, temperatureK: number
     if (!(typeof pH === 'number' && Number.isFinite(pH) && pH >= PH_MIN && pH <= PH_MAX)) {
       throw new InputError(`${path}.pH`, `must be a pH between ${PH_MIN} and ${PH_MAX}`, pH);
     }
-    const nernstSlope = (Math.LN10 * GAS_CONSTANT.value * temperatureK) / FARADAY.value;
+    const nernstSlope = Math.LN10 * thermalVoltage(temperatureK);
     return { value: -nernstSlope * pH, warnings };
   }
   const entry = (REFERENCE_ELECTRODES as Record<string, ReferenceElectrode | undefined>)[ref.id];
   if (!entry) throw new InputError(`${path}.id`, `unknown reference electrode "${String(ref.id)}"`, ref.id);
   if (Math.abs(temperatureK - T_STANDARD.value) > REFERENCE_TEMPERATURE_TOLERANCE_K) {
-    // 273.15 in the message: 0 °C in K (exact, as ZERO_CELSIUS_K in constants.ts).
     warnings.push(
-      `The ${entry.name} potential (${entry.potentialVsShe.toFixed(4)} V vs SHE) is tabulated at 25 °C; at ${(temperatureK - 273.15).toFixed(1)} °C it shifts by up to several mV (temperature coefficient not applied). Enter a calibrated custom value if that matters.`,
+      `The ${entry.name} potential (${entry.potentialVsShe.toFixed(4)} V vs SHE) is tabulated at 25 °C; at ${kelvinToCelsius(temperatureK).toFixed(1)} °C it shifts by up to several mV (temperature coefficient not applied). Enter a calibrated custom value if that matters.`,
     );
   }
   return { value: entry.potentialVsShe, warnings };

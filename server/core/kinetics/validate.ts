@@ -45,13 +45,6 @@ export function checkTemperature(temperature: unknown, path = 'temperature'): as
   }
 }
 
-/** Optional positive finite number (returns it) or undefined. */
-export function checkOptionalPositive(value: unknown, path: string, what: string): number | undefined {
-  if (value === undefined) return undefined;
-  if (typeof value !== 'number' || !Number.isFinite(value) || value <= 0) throw new InputError(path, `${what} must be a finite number > 0`, value);
-  return value;
-}
-
 /** Manual |η| window: 0 ≤ min < max, finite. */
 export function checkWindow(window: unknown, path = 'window'): { minOverpotential: number; maxOverpotential: number } {
   const w = window as { minOverpotential?: unknown; maxOverpotential?: unknown } | null;

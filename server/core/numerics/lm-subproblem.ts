@@ -21,7 +21,8 @@ const DWARF = 2.2250738585072014e-308;
 /** Max Newton iterations on λ (MINPACK lmpar uses 10). */
 const LMPAR_MAX_ITER = 10;
 
-function enorm(v: Float64Array, len = v.length): number {
+/** Euclidean norm of the first `len` entries of v (scaled; overflow-safe). */
+export function enorm(v: Float64Array, len = v.length): number {
   return scaledNorm(v, 0, len);
 }
 

@@ -39,7 +39,7 @@
  */
 import { InputError } from '../errors.js';
 import { inverseGram, pivotedQR, scaledNorm, applyQt } from './qr.js';
-import { lmParameter, type LmParWork } from './lm-subproblem.js';
+import { enorm, lmParameter, type LmParWork } from './lm-subproblem.js';
 import type { NonlinearFit, NonlinearOptions, NonlinearProblem, NonlinearStatus } from './types.js';
 
 const EPSILON = Number.EPSILON;
@@ -124,11 +124,6 @@ function checkTol(name: string, v: number | undefined, dflt: number): number {
   if (v === undefined) return dflt;
   if (typeof v !== 'number' || !Number.isFinite(v) || v < 0 || v >= 1) fail(`options.${name}`, 'must be a number in [0, 1)', v);
   return v;
-}
-
-/** Euclidean norm of a plain vector (scaled; overflow-safe). */
-function enorm(v: Float64Array, len = v.length): number {
-  return scaledNorm(v, 0, len);
 }
 
 /**

@@ -1,7 +1,7 @@
 /**
  * Faraday data for the plant layer: the products and feeds of the two chemistries the plant
- * pages handle, kept local so the plant core does not wait on the chemistry module (the web
- * layer bridges the two).
+ * pages handle ('water' covers both water electrolysers). Product names and Faraday's-law
+ * equivalent are the chemistry module's.
  *
  * Molar masses come from server/core/constants.ts MOLAR_MASS (IUPAC/CIAAW abridged standard
  * atomic weights, 2021). Electrons per molecule from the electrode reactions:
@@ -10,9 +10,12 @@
  *   cathode 2 H₂O + 2 e⁻ → H₂ + 2 OH⁻           (z = 2)
  *   caustic one Na⁺ crosses the membrane per e⁻  (z = 1 per NaOH)
  */
-import { FARADAY, GAS_CONSTANT, MOLAR_MASS, P_NORMAL, ZERO_CELSIUS_K } from '../constants.js';
+import { GAS_CONSTANT, MOLAR_MASS, P_NORMAL, ZERO_CELSIUS_K } from '../constants.js';
+import type { ProductId } from '../chemistry/types.js';
 
-export type ProductId = 'Cl2' | 'NaOH' | 'H2' | 'O2';
+export type { ProductId };
+/** Electrochemical equivalent M/(zF) [kg/C] (Faraday's law; chemistry module). */
+export { electrochemicalEquivalent } from '../chemistry/index.js';
 export type PlantChemistry = 'chlor-alkali' | 'water';
 
 /** One electrolysis product as Faraday's law sees it. */
@@ -125,14 +128,6 @@ export const CHEMISTRY_SPECS: Readonly<Record<PlantChemistry, ChemistrySpec>> = 
     },
   },
 };
-
-/**
- * Electrochemical equivalent e = M/(zF), kg per coulomb (× 3.6e6 for kg/kA·h).
- * Faraday's law at 100 % current efficiency. Cl₂ → 1.32269 kg/kA·h (check-values §8).
- */
-export function electrochemicalEquivalent(product: ProductSpec): number {
-  return product.molarMass / (product.electronsPerMolecule * FARADAY.value);
-}
 
 /** Seconds per hour (exact). */
 export const SECONDS_PER_HOUR = 3600;

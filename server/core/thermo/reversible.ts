@@ -19,12 +19,13 @@
  */
 import { FARADAY, GAS_CONSTANT, P_STANDARD } from '../constants.js';
 import { InputError, PhysicsError } from '../errors.js';
+import { UNIT_TABLES } from '../units.js';
 import { requirePositive, requireTemperature, describeTemperature } from './guards.js';
 import { reactionThermo, type ReactionThermo, type Stoichiometry } from './reaction.js';
 import type { SpeciesId } from './species.js';
 
-/** Pa per bar (exact), for messages only. */
-const PA_PER_BAR = 1e5;
+/** Pa per bar (exact, units.ts), for messages only. */
+const PA_PER_BAR = UNIT_TABLES.pressure.bar;
 import { waterVapourPressure } from './water.js';
 
 export interface ReversibleComputation {

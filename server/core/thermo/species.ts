@@ -347,17 +347,3 @@ export function entropy(species: SpeciesRecord, temperature: number): number {
 export function gibbsFunction(species: SpeciesRecord, temperature: number): number {
   return enthalpy(species, temperature) - temperature * entropy(species, temperature);
 }
-
-/** All species functions at T [K] in one object (SI units). */
-export function speciesProperties(species: SpeciesRecord, temperature: number): {
-  heatCapacity: number;
-  enthalpy: number;
-  enthalpyIncrement: number;
-  entropy: number;
-  gibbs: number;
-} {
-  const hInc = enthalpyIncrement(species, temperature);
-  const s = entropy(species, temperature);
-  const h = species.formationEnthalpy + hInc;
-  return { heatCapacity: heatCapacity(species, temperature), enthalpy: h, enthalpyIncrement: hInc, entropy: s, gibbs: h - temperature * s };
-}

@@ -15,6 +15,7 @@
  */
 import { ZERO_CELSIUS_K } from '../constants.js';
 import { InputError, PhysicsError } from '../errors.js';
+import { UNIT_TABLES } from '../units.js';
 import { molalityToMassFraction, molalityToMolarity, type Electrolyte } from '../thermo/concentration.js';
 import { requireFinite, requirePositive, requireTemperature, describeTemperature } from '../thermo/guards.js';
 
@@ -30,8 +31,8 @@ export interface ConductivityResult {
   inputs: Record<string, number>;
 }
 
-/** S/cm → S/m. */
-const S_PER_CM_IN_S_PER_M = 100;
+/** S/cm → S/m (units.ts). */
+const S_PER_CM_IN_S_PER_M = UNIT_TABLES.conductivity['S/cm'];
 /** mol/m³ per mol/L. */
 const MOL_PER_M3_PER_MOL_PER_L = 1000;
 

@@ -11,7 +11,7 @@
  * Electrochemical Methods, 2nd ed., ch. 1 (from memory).
  * At or above the limiting current the model has no solution: PhysicsError, never NaN.
  */
-import { FARADAY, GAS_CONSTANT } from '../constants.js';
+import { FARADAY, thermalVoltage } from '../constants.js';
 import { PhysicsError } from '../errors.js';
 import { requireFinite, requireNonNegative, requirePositive, requireTemperature } from '../thermo/guards.js';
 
@@ -40,6 +40,6 @@ export function concentrationOverpotential(currentDensity: number, limitingCurre
       `|j| = ${Math.abs(currentDensity).toPrecision(4)} A/m² is at or above the limiting current density ${limitingCurrent.toPrecision(4)} A/m²: the mass-transport model has no solution`,
     );
   }
-  const magnitude = -((GAS_CONSTANT.value * temperature) / (electrons * FARADAY.value)) * Math.log1p(-ratio);
+  const magnitude = -(thermalVoltage(temperature) / electrons) * Math.log1p(-ratio);
   return currentDensity < 0 ? -magnitude : magnitude;
 }

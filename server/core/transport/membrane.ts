@@ -12,6 +12,7 @@
  */
 import { GAS_CONSTANT } from '../constants.js';
 import { InputError, PhysicsError } from '../errors.js';
+import { UNIT_TABLES } from '../units.js';
 import { requireFinite, requireNonNegative, requirePositive, requireTemperature } from '../thermo/guards.js';
 
 /**
@@ -73,7 +74,8 @@ export const SPRINGER_UPTAKE = { c0: 0.043, c1: 17.81, c2: -39.85, c3: 36.0, lam
 const SPRINGER_LAMBDA_MIN = 1;
 /** Temperature window [K] outside which a warning is given (0–100 °C, project choice; the model was built for ≈ 30–80 °C, from memory). */
 const SPRINGER_T_WINDOW = [273.15, 373.15] as const;
-const S_PER_CM_IN_S_PER_M = 100;
+/** S/cm → S/m (units.ts). */
+const S_PER_CM_IN_S_PER_M = UNIT_TABLES.conductivity['S/cm'];
 
 export interface MembraneConductivityResult {
   /** σ [S/m]. */
