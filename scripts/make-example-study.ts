@@ -14,8 +14,7 @@
 import { writeFileSync } from 'node:fs';
 import path from 'node:path';
 import normalFactory from '@stdlib/random-base-normal';
-import { butlerVolmerOverpotential, exchangeCurrentAtTemperature, type ButlerVolmerParams } from '../server/core/kinetics/models.js';
-import { thermalVoltage } from '../server/core/constants.js';
+import { butlerVolmerOverpotential, exchangeCurrentAtTemperature, transferCoefficientFromTafelSlope, type ButlerVolmerParams } from '../server/core/kinetics/models.js';
 import { celsiusToKelvin } from '../server/core/units.js';
 import { datasetSchema, studySchema } from '../server/scenario/schema.js';
 import { SCENARIOS_DIR } from '../server/paths.js';
@@ -24,10 +23,6 @@ import { buildExampleSections } from './example-sections.js';
 const SEED = Number(process.env.EXAMPLE_SEED ?? 17);
 const rnorm = normalFactory.factory({ seed: SEED });
 
-/** Tafel slope per decade b (V) → transfer coefficient α = ln10·RT/(F·b). */
-function alphaFromSlope(slopePerDecade: number, temperatureK: number): number {
-  return (Math.LN10 * thermalVoltage(temperatureK)) / slopePerDecade;
-}
 
 interface Truth {
   id: string;
@@ -69,7 +64,7 @@ function currentDensities(): number[] {
 
 function dataset(t: Truth, celsius: number) {
   const T = celsiusToKelvin(celsius);
-  const alphaMain = alphaFromSlope(t.slope * (T / T_REF), T); // slope ∝ T at fixed α
+  const alphaMain = transferCoefficientFromTafelSlope(t.slope * (T / T_REF), T); // slope ∝ T at fixed α
   const j0 = exchangeCurrentAtTemperature(t.j0At88C, T_REF, t.activationEnergy, T);
   const p: ButlerVolmerParams = t.electrode === 'anode'
     ? { exchangeCurrentDensity: j0, anodicTransferCoefficient: alphaMain, cathodicTransferCoefficient: 2 - alphaMain > 0.1 ? 2 - alphaMain : 0.5, anodicLimitingCurrentDensity: t.limiting }

@@ -13,11 +13,8 @@
 import { z } from 'zod';
 import { kineticsSchema } from '../core/cell/schema.js';
 import { cellSourceSchema } from '../web/cell-source.js';
+import { finite, fraction, nonNegative, positive } from './numbers.js';
 
-const finite = z.number().refine(Number.isFinite, 'must be a finite number');
-const positive = finite.refine((v) => v > 0, 'must be > 0');
-const nonNegative = finite.refine((v) => v >= 0, 'must be ≥ 0');
-const fraction01 = finite.refine((v) => v > 0 && v <= 1, 'must be in (0, 1]');
 
 /** Most operating hours in a year (365 × 24 h, exact). */
 export const MAX_OPERATING_HOURS = 8760;
@@ -53,7 +50,7 @@ export const costRequestSchema = z
     /** Plant data `{ linear: { intercept V, slope V per A/m² } }` or a cell definition; default: the study's cell. */
     cell: cellSourceSchema.optional(),
     /** Constant CE (0, 1]: required with plant data; with a cell definition it overrides the model's CE. */
-    currentEfficiency: fraction01.optional(),
+    currentEfficiency: fraction.optional(),
     /** Electricity price, currency per kWh. */
     electricityPrice: positive,
     /** Installed capital per m² of active area, currency/m². */
@@ -137,7 +134,7 @@ export const coatingOptionSchema = z
     /** Its own cell: plant data or a cell definition (excludes anode/cathode swaps). */
     cell: cellSourceSchema.optional(),
     /** Constant CE (0, 1] for a plant-data cell (or overriding a model's CE). */
-    currentEfficiency: fraction01.optional(),
+    currentEfficiency: fraction.optional(),
     /** New anode kinetics on the base cell. */
     anode: electrodeSwapSchema.optional(),
     /** New cathode kinetics on the base cell. */
@@ -176,7 +173,7 @@ export const coatingsRequestSchema = z
     product: productSchema,
     /** Base cell for electrode swaps (a cell definition); default: the study's cell. */
     cell: cellSourceSchema.optional(),
-    currentEfficiency: fraction01.optional(),
+    currentEfficiency: fraction.optional(),
     /** Design current density, A/m². */
     currentDensity: positive,
     plant: plantSizeSchema,

@@ -4,11 +4,8 @@
  * and the inputs of the safety checks. All numbers SI: kg/s, A/m², m², V, A, Ω, S/m, m, m².
  */
 import { z } from 'zod';
+import { finite, fraction, nonNegative, positive } from './numbers.js';
 
-const finite = z.number().refine(Number.isFinite, 'must be a finite number');
-const positive = finite.refine((v) => v > 0, 'must be > 0');
-const nonNegative = finite.refine((v) => v >= 0, 'must be ≥ 0');
-const fraction = finite.refine((v) => v > 0 && v <= 1, 'must be in (0, 1]');
 
 /** Products a plant can be sized for (the main product of the target). */
 export const plantProductSchema = z.enum(['Cl2', 'NaOH', 'H2']);

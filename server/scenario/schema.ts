@@ -6,12 +6,11 @@
  */
 import { z } from 'zod';
 import { sectionSchemas } from './sections.js';
+import { finite, positive } from './numbers.js';
 
 export const STUDY_FORMAT = 'electrolysis-study';
 export const STUDY_VERSION = 1;
 
-const finite = z.number().refine(Number.isFinite, 'must be a finite number');
-const positive = finite.refine((v) => v > 0, 'must be > 0');
 
 export const chemistryIdSchema = z.enum(['chlor-alkali', 'alkaline-water', 'pem-water']);
 export const referenceElectrodeIdSchema = z.enum(['SHE', 'RHE', 'SCE', 'AgAgCl-satKCl', 'HgHgO-1MNaOH']);

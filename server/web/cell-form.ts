@@ -18,10 +18,11 @@
  * core's definition paths (e.g. `ohmic.gaps[1].voidFraction`) back to them.
  */
 import { Decimal } from 'decimal.js';
-import { thermalVoltage, ZERO_CELSIUS_K } from '../core/constants.js';
+import { ZERO_CELSIUS_K } from '../core/constants.js';
 import { InputError, PhysicsError, type IssueDetail } from '../core/errors.js';
 import {
   fitKinetics,
+  transferCoefficientFromTafelSlope,
   WORKING_BRANCH_LN_J0,
   workingTransferCoefficientKey,
   type Branch,
@@ -511,18 +512,8 @@ const J_PER_KJ = 1000;
 /** Percent → fraction. */
 const PERCENT = 100;
 
-/**
- * Transfer coefficient α from a Tafel slope b [V/decade] at temperature T [K]:
- * α = ln(10)·RT/(F·b). Source: Tafel equation, domain.md §3.
- */
-export function alphaFromSlope(slopePerDecade: number, temperatureK: number): number {
-  return (Math.LN10 * thermalVoltage(temperatureK)) / slopePerDecade;
-}
-
-/** Tafel slope [V/decade] of transfer coefficient α at T [K]: b = ln(10)·RT/(αF) (domain.md §3). */
-export function slopeFromAlpha(alpha: number, temperatureK: number): number {
-  return (Math.LN10 * thermalVoltage(temperatureK)) / alpha;
-}
+/** Transfer coefficient α from a Tafel slope b [V/decade] at T [K] (the kinetics core's inverse of b₁₀ = ln10·RT/(αF)). */
+export const alphaFromSlope = transferCoefficientFromTafelSlope;
 
 // ---------------------------------------------------------------------------------------------
 // Kinetic fits → definition kinetics with uncertainty

@@ -18,8 +18,8 @@ import { InputError, PhysicsError, type IssueDetail } from '../core/errors.js';
 import { cellDefinitionSchema, cellModelEvaluator } from '../core/cell/index.js';
 import type { CellDefinition, ProductId } from '../core/cell/types.js';
 import type { CellPerformance, PlantChemistry } from '../core/plant/index.js';
+import { finite } from '../scenario/numbers.js';
 
-const finite = z.number().refine(Number.isFinite, 'must be a finite number');
 
 /** The K-factor line of plant data, SI: U0 [V] > 0, K [V per A/m²] ≥ 0. */
 export const linearCellSchema = z.strictObject({

@@ -11,13 +11,15 @@ import { Decimal } from 'decimal.js';
 import { InputError, PhysicsError } from '../core/errors.js';
 import { sweepCell } from '../core/cell/sweep.js';
 import { voltageBand, type VoltageBandResult } from '../core/cell/uncertainty.js';
+import { kFactorLineVoltage, thermodynamicVoltageEfficiency } from '../core/cell/efficiency-figures.js';
+import { tafelSlopePerDecade } from '../core/kinetics/models.js';
 import type { CellSweepResult, ChemistryId, ProductId, SweepPoint } from '../core/cell/types.js';
 import { CAUTIONS, SAFETY_DISCLAIMER, type Caution } from '../core/safety/cautions.js';
 import { fromSI, UNIT_TABLES } from '../core/units.js';
 import type { CellSection } from '../scenario/cell-section.js';
 import { firstNonFinite } from './validate.js';
 import { celsius, fixed, fmt } from './format.js';
-import { slopeFromAlpha, type ElectrodeOrigin, type ElectrodeRole } from './cell-form.js';
+import type { ElectrodeOrigin, ElectrodeRole } from './cell-form.js';
 
 /** The core's answer for one cell section. */
 export interface CellEvaluation {
@@ -231,7 +233,7 @@ function voltageChart(ev: CellEvaluation): object {
     const ends = [k.range[0], k.range[1]];
     datasets.push({
       label: 'K-factor line U0 + K·j',
-      data: ends.map((j) => ({ x: r6(fromSI(j, 'currentDensity', 'kA/m2')), y: r6(k.intercept + k.value * j) })),
+      data: ends.map((j) => ({ x: r6(fromSI(j, 'currentDensity', 'kA/m2')), y: r6(kFactorLineVoltage(k, j)) })),
       stack: 'kFactor',
       fill: false,
       borderColor: PART_COLOURS.kFactor,
@@ -375,8 +377,8 @@ function designView(ev: CellEvaluation): CellView['design'] {
     rows.push({ label: 'Voltage efficiency (HHV)', value: percent(p.voltageEfficiency.hhv, 1), unit: '%', note: 'U_tn,HHV(25 °C)/U' });
     if (p.voltageEfficiency.lhv !== undefined) rows.push({ label: 'Voltage efficiency (LHV)', value: percent(p.voltageEfficiency.lhv, 1), unit: '%', note: 'U_LHV(25 °C)/U' });
   } else {
-    // Chlor-alkali habit: the thermodynamic voltage efficiency E_rev/U (a ratio of two core results).
-    rows.push({ label: 'Voltage efficiency', value: percent(result.reversiblePotential / U, 1), unit: '%', note: 'E_rev/U' });
+    // Chlor-alkali habit: the thermodynamic voltage efficiency E_rev/U.
+    rows.push({ label: 'Voltage efficiency', value: percent(thermodynamicVoltageEfficiency(result.reversiblePotential, U), 1), unit: '%', note: 'E_rev/U' });
   }
   rows.push({
     label: 'Heat load',
@@ -421,7 +423,7 @@ function kineticsRows(section: CellSection, result: CellSweepResult, origins: Pa
       origin: origin?.note ?? section.provenance?.[role]?.note ?? '',
       model: k.model === 'tafel' ? 'Tafel' : `Butler–Volmer (α_a ${fmt(k.anodicTransferCoefficient, 3)}, α_c ${fmt(k.cathodicTransferCoefficient, 3)})`,
       alpha: fmt(alpha, 4),
-      slope: fmt(fromSI(slopeFromAlpha(alpha, section.temperature), 'potential', 'mV'), 4),
+      slope: fmt(fromSI(tafelSlopePerDecade(alpha, section.temperature), 'potential', 'mV'), 4),
       j0Ref: fmt(k.exchangeCurrentDensity, 4),
       refT: k.referenceTemperature === undefined ? 'cell T' : celsius(k.referenceTemperature, 1),
       ea: k.activationEnergy === undefined ? '—' : fmt(fromSI(k.activationEnergy, 'energyPerMol', 'kJ/mol'), 3),

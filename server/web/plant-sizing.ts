@@ -36,10 +36,8 @@ import {
 } from './plant-view.js';
 import { safetyPanelFor, safetyRouter } from './safety-view.js';
 import { assertFiniteTree, parseBody } from './validate.js';
+import { fraction, positive } from '../scenario/numbers.js';
 
-const finite = z.number().refine(Number.isFinite, 'must be a finite number');
-const positive = finite.refine((v) => v > 0, 'must be > 0');
-const fraction = finite.refine((v) => v > 0 && v <= 1, 'must be in (0, 1]');
 
 /** Chemistries the API accepts: the study ids, and "water" for either water electrolyser. */
 const apiChemistrySchema = z.enum(['chlor-alkali', 'alkaline-water', 'pem-water', 'water'], {

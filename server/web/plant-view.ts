@@ -9,10 +9,10 @@ import Papa from 'papaparse';
 import { Decimal } from 'decimal.js';
 import { InputError, PhysicsError, type IssueDetail } from '../core/errors.js';
 import { UNIT_TABLES, fromSI, toSI } from '../core/units.js';
-import { FARADAY } from '../core/constants.js';
 import {
   PRODUCT_SPECS,
   cellAreaResistanceAt,
+  electrochemicalEquivalent,
   electrolytePathResistance,
   evaluateCell,
   sizePlant,
@@ -158,14 +158,13 @@ export const MIN_CELL_FRACTION = 1e-6;
 
 /**
  * Front-door check of the plant's scale before the core lays it out: cells needed at the
- * design point, N = ṁ·z·F / (M·CE·j·A_cell) (Faraday's law; ṁ kg/s, z electrons per molecule,
- * F C/mol, M kg/mol, CE fraction, j A/m², A_cell m²). Throws InputError on the target's path
+ * design point, N = ṁ/(e·CE·j·A_cell) with e = M/(zF) the electrochemical equivalent (Faraday's
+ * law; ṁ kg/s, e kg/C, CE fraction, j A/m², A_cell m²). Throws InputError on the target's path
  * (`target.massRate`, renamed by the caller) when N is not finite, above MAX_PLANT_CELLS or
  * below MIN_CELL_FRACTION.
  */
 function checkPlantScale(req: SizingRequest, performance: CellPerformance): void {
-  const spec = PRODUCT_SPECS[req.product];
-  const chargeRate = (req.productionRate * spec.electronsPerMolecule * FARADAY.value) / spec.molarMass;
+  const chargeRate = req.productionRate / electrochemicalEquivalent(PRODUCT_SPECS[req.product]);
   const { currentEfficiency } = evaluateCell(performance, req.currentDensity, 'cell');
   const cellsExact = chargeRate / currentEfficiency / (req.currentDensity * req.cellArea);
   const at = `cells of ${req.cellArea.toPrecision(3)} m² at ${req.currentDensity.toPrecision(3)} A/m²`;

@@ -15,10 +15,11 @@ import { describeError } from './errors.js';
 import type { IssueDetail } from '../core/errors.js';
 import { assessSafety, SAFETY_DISCLAIMER } from '../core/safety/index.js';
 import { kelvinToCelsius } from '../core/units.js';
+import { tafelSlopePerDecade } from '../core/kinetics/models.js';
 import type { CellSection } from '../scenario/cell-section.js';
 import type { PlantSection } from '../scenario/plant-sections.js';
 import type { Dataset, SavedFit, Study } from '../scenario/schema.js';
-import { CHEMISTRY_LABELS, slopeFromAlpha, type ElectrodeOrigin, type ElectrodeRole } from './cell-form.js';
+import { CHEMISTRY_LABELS, type ElectrodeOrigin, type ElectrodeRole } from './cell-form.js';
 import { cellView, evaluateCell, type BreakdownRow, type Row } from './cell-view.js';
 import { coatingsView, costsView, runCoatingComparison, runCostStudy, type CoatingsView, type CostsView } from './economics-view.js';
 import { celsius, fmt, inUnit } from './format.js';
@@ -140,7 +141,7 @@ function fitRow(f: SavedFit): FitRow {
   const j0 = p.exchangeCurrentDensity;
   let slope = '—';
   if (slopeParam) slope = fmt(Math.abs(slopeParam.value) * MV_PER_V, 4);
-  else if (alphaParam && alphaParam.value > 0) slope = `${fmt(slopeFromAlpha(alphaParam.value, f.temperature) * MV_PER_V, 4)} (from α)`;
+  else if (alphaParam && alphaParam.value > 0) slope = `${fmt(tafelSlopePerDecade(alphaParam.value, f.temperature) * MV_PER_V, 4)} (from α)`;
   return {
     name: f.name,
     electrode: f.electrode,

@@ -18,13 +18,13 @@ import type { CellDefinition } from '../core/cell/types.js';
 import {
   CAUTIONS,
   SAFETY_DISCLAIMER,
-  anodeGasHydrogenFraction,
   assessSafety,
   gasProductionRate,
   type SafetyAssessment,
   type SafetyAssessmentInput,
   type SafetyCheck,
 } from '../core/safety/index.js';
+import { crossoverFluxFromHydrogenFraction } from '../core/safety/crossover.js';
 import type { Study } from '../scenario/schema.js';
 import type { StudyStore } from '../scenario/store.js';
 import { plantSafetySchema, type PlantSection } from '../scenario/plant-sections.js';
@@ -234,9 +234,8 @@ function hydrogenFromCellModel(def: CellDefinition, currentDensity: number): num
 
 /**
  * Convert the form to the safety core's input (SI). The anode-gas check needs a crossover flux:
- * from the H₂ fraction x at the operating point, f = g·x/(1 − x) with g the anode-gas
- * production at the operating point (inverse of x = f/(f + g), safety core
- * anodeGasHydrogenFraction; g by Faraday's law, core gasProductionRate). With the flux taken
+ * from the H₂ fraction x at the operating point (safety core crossoverFluxFromHydrogenFraction,
+ * with the anode-gas production g by Faraday's law, core gasProductionRate). With the flux taken
  * constant, x rises as load falls (the core's anodeGasPurity). Current efficiency cancels
  * between the two steps, so g is taken at CE = 1.
  */
@@ -278,10 +277,7 @@ export function safetyInputs(form: SafetyForm, facts: StudyFacts): SafetyInputs 
     if (hydrogen) {
       const anodeGas = facts.chemistry === 'water' ? PRODUCT_SPECS.O2 : PRODUCT_SPECS.Cl2;
       const production = gasProductionRate(jSI, anodeGas.electronsPerMolecule, 1);
-      const flux = (production * hydrogen.fraction) / (1 - hydrogen.fraction);
-      // Round trip through the core's own definition (guards the inversion above).
-      const back = anodeGasHydrogenFraction(flux, production);
-      if (Math.abs(back - hydrogen.fraction) > 1e-12) throw new InputError('hydrogenInAnodeGas', 'could not convert the H₂ content to a crossover flux');
+      const flux = crossoverFluxFromHydrogenFraction(hydrogen.fraction, production);
       out.minimumCurrentDensity = jSI * ((minLoad as number) / PERCENT);
       assessment.anodeGas = {
         crossoverFlux: flux,

@@ -162,6 +162,17 @@ export function tafelSlopePerDecade(transferCoefficient: number, temperatureK: n
 }
 
 /**
+ * Transfer coefficient from a Tafel slope per decade (inverse of tafelSlopePerDecade):
+ * α = ln(10)·RT/(F·b₁₀). b₁₀ [V/decade] > 0, T [K] > 0 → α [-].
+ * Source: IUPAC 2014 (Guidelli et al.), derived relation; domain.md §3.
+ */
+export function transferCoefficientFromTafelSlope(slopePerDecade: number, temperatureK: number): number {
+  requirePositive(slopePerDecade, 'tafelSlope', 'Tafel slope [V/decade]');
+  requirePositive(temperatureK, 'temperature', 'temperature [K]');
+  return Math.LN10 / (slopePerDecade * faradayOverRT(temperatureK));
+}
+
+/**
  * Arrhenius temperature dependence of the exchange current density:
  *   j0(T) = j0_ref · exp[−(E_a/R)(1/T − 1/T_ref)].
  * Arguments: j0_ref [A/m²] > 0 at T_ref [K] > 0, apparent activation energy E_a [J/mol]
