@@ -4,8 +4,8 @@
  * Units: j [A/m²] (anodic > 0), η [V], T [K], R_u [Ω·m²], limiting currents [A/m²].
  */
 import { InputError } from '../errors.js';
-import { fitButlerVolmer } from './butler-volmer.js';
-import { fitTafel } from './tafel.js';
+import { fitButlerVolmer, type ButlerVolmerFitResult } from './butler-volmer.js';
+import { fitTafel, type TafelFitResult } from './tafel.js';
 import type { Branch, FittedParameter, PolarizationPoint, ResidualRecord } from './types.js';
 import type { WorkingBranchUncertainty } from './working-branch.js';
 import { checkPoints, checkTemperature } from './validate.js';
@@ -113,14 +113,7 @@ export function fitKinetics(input: KineticsFitInput): KineticsFitResult {
       model,
       branch: r.branch,
       parameters,
-      statistics: pickStats(r.statistics),
-      window: { minOverpotential: r.window.minOverpotential, maxOverpotential: r.window.maxOverpotential, rule: r.window.rule },
-      correlation: r.correlation,
-      ...(r.workingBranchUncertainty ? { workingBranchUncertainty: r.workingBranchUncertainty } : {}),
-      residuals: r.residuals,
-      curve: r.curve,
-      converged: r.converged,
-      status: r.status,
+      ...sharedFields(r),
       warnings: [...warnings, ...r.warnings],
     };
   }
@@ -139,14 +132,7 @@ export function fitKinetics(input: KineticsFitInput): KineticsFitResult {
   return {
     model,
     parameters: { ...r.parameters },
-    statistics: pickStats(r.statistics),
-    window: { minOverpotential: r.window.minOverpotential, maxOverpotential: r.window.maxOverpotential, rule: r.window.rule },
-    correlation: r.correlation,
-    ...(r.workingBranchUncertainty ? { workingBranchUncertainty: r.workingBranchUncertainty } : {}),
-    residuals: r.residuals,
-    curve: r.curve,
-    converged: r.converged,
-    status: r.status,
+    ...sharedFields(r),
     warnings: r.warnings,
   };
 }
@@ -159,5 +145,19 @@ function pickStats(s: { points: number; degreesOfFreedom: number; rSquared: numb
     residualStandardDeviation: s.residualStandardDeviation,
     aic: s.aic,
     bic: s.bic,
+  };
+}
+
+/** The result fields both models report in the same way. */
+function sharedFields(r: TafelFitResult | ButlerVolmerFitResult) {
+  return {
+    statistics: pickStats(r.statistics),
+    window: { minOverpotential: r.window.minOverpotential, maxOverpotential: r.window.maxOverpotential, rule: r.window.rule },
+    correlation: r.correlation,
+    ...(r.workingBranchUncertainty ? { workingBranchUncertainty: r.workingBranchUncertainty } : {}),
+    residuals: r.residuals,
+    curve: r.curve,
+    converged: r.converged,
+    status: r.status,
   };
 }
